@@ -1,0 +1,8 @@
+namespace Plumbline.Core.Entailment;
+
+public enum EntailmentKind
+{
+    Entailment,
+    Neutral,
+    Contradiction,
+}

@@ -1,0 +1,15 @@
+namespace Plumbline.Core.Language;
+
+/// <summary>
+/// Port to a language model. Implementations must be safe for concurrent calls: the engine issues
+/// independent requests of one tree level at the same time.
+/// </summary>
+public interface ILanguageModel
+{
+    /// <summary>A short, stable description for reports ("recording:samples/x.jsonl", "http:gpt-x").</summary>
+    string Describe { get; }
+
+    Task<GenerationResult> GenerateAsync(GenerationRequest request, CancellationToken cancellationToken);
+
+    Task<AnswerProbabilities> ScoreAnswersAsync(AnswerRequest request, CancellationToken cancellationToken);
+}
