@@ -1,0 +1,13 @@
+namespace Plumbline.Core.Coherence;
+
+/// <summary>Readable names for why a clause exists; statement ids are written "#id".</summary>
+public static class ClauseOrigin
+{
+    public static string Belief(int statementId) => $"belief: #{statementId}";
+
+    public static string Entails(int from, int to) => $"#{from} entails #{to}";
+
+    public static string Contradicts(int from, int to) => $"#{from} contradicts #{to}";
+
+    public static string Pin(int statementId, bool value) => $"pin: #{statementId} = {(value ? "true" : "false")}";
+}

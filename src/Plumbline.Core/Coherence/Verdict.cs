@@ -1,0 +1,69 @@
+using System.Text.Json.Serialization;
+using Plumbline.Core.Claims;
+using Plumbline.Core.Language;
+using Plumbline.Core.MaxSat;
+using Plumbline.Core.Trees;
+
+namespace Plumbline.Core.Coherence;
+
+/// <summary>Everything the engine found out about one claim.</summary>
+/// <param name="Claim">The claim judged.</param>
+/// <param name="Answer">The coherent answer (the claim's value in the MAX-SAT optimum); null when failed.</param>
+/// <param name="DirectAnswer">What the model answers when simply asked; null when that failed.</param>
+/// <param name="Status">Settled, overturned, contested or failed.</param>
+/// <param name="Margin">Extra clause weight lost if the claim took the other value (scaled cost difference / scale).</param>
+/// <param name="TwoSided">The kept explanations of the claim include integral ones written for True and for False.</param>
+/// <param name="Tree">All statements, pruned ones included; null when the tree could not be built.</param>
+/// <param name="Links">Entailments and contradictions among kept statements.</param>
+/// <param name="Falsified">Soft clauses the optimum breaks.</param>
+/// <param name="SolveStatus">The solver's status; null when no solve happened.</param>
+/// <param name="ObjectiveCost">Scaled cost of the optimum, as in the exported WCNF; null when no solve happened.</param>
+/// <param name="IntegralCount">Statements (root included) that passed the integrity test.</param>
+/// <param name="PrunedCount">Statements removed by pruning.</param>
+/// <param name="ModelCalls">Language model requests made for this claim.</param>
+/// <param name="Tokens">Tokens those requests used, as the backend reported them.</param>
+/// <param name="ProbabilitiesEstimated">True when the backend estimated answer probabilities by sampling.</param>
+/// <param name="Timings">Time spent building the tree, scoring pairs and solving.</param>
+/// <param name="Error">Why the claim failed; null otherwise.</param>
+/// <param name="Problem">The MAX-SAT problem, for WCNF export; not part of the report itself.</param>
+public sealed record Verdict(
+    Claim Claim,
+    bool? Answer,
+    bool? DirectAnswer,
+    ClaimStatus Status,
+    double Margin,
+    bool TwoSided,
+    ExplanationTree? Tree,
+    IReadOnlyList<Link> Links,
+    IReadOnlyList<FalsifiedClause> Falsified,
+    SolveStatus? SolveStatus,
+    long? ObjectiveCost,
+    int IntegralCount,
+    int PrunedCount,
+    int ModelCalls,
+    TokenUsage Tokens,
+    bool ProbabilitiesEstimated,
+    VerdictTimings Timings,
+    string? Error = null,
+    [property: JsonIgnore] CoherenceProblem? Problem = null)
+{
+    [JsonIgnore]
+    public bool Overturned => Status == ClaimStatus.Overturned;
+
+    [JsonIgnore]
+    public bool IsFailed => Status == ClaimStatus.Failed;
+
+    /// <summary>A verdict for a claim that could not be judged; whatever was learned before the failure is kept.</summary>
+    public static Verdict Failed(
+        Claim claim,
+        string error,
+        ExplanationTree? tree = null,
+        bool? directAnswer = null,
+        int modelCalls = 0,
+        TokenUsage tokens = default,
+        VerdictTimings? timings = null) =>
+        new(claim, null, directAnswer, ClaimStatus.Failed, 0.0, false, tree, [], [], null, null,
+            tree?.Statements.Count(s => s.IsIntegral) ?? 0,
+            tree?.Statements.Count(s => !s.Kept) ?? 0,
+            modelCalls, tokens, false, timings ?? VerdictTimings.None, error);
+}
