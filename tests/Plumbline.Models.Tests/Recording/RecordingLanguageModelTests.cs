@@ -1,0 +1,209 @@
+using Plumbline.Core.Language;
+using Plumbline.Models.Recording;
+using Xunit;
+
+namespace Plumbline.Models.Tests.Recording;
+
+public sealed class RecordingLanguageModelTests : IDisposable
+{
+    private readonly TempDirectory temp = new();
+
+    public void Dispose() => temp.Dispose();
+
+    private static Task<RecordingLanguageModel> Load(string path) =>
+        RecordingLanguageModel.LoadAsync(path, Requests.Version, CancellationToken.None);
+
+    [Fact]
+    public async Task LoadAsync_LinesWithAndWithoutKey_ReplaysRecordedResponses()
+    {
+        var keyed = RequestFingerprint.Of(Requests.Answer("Bats can fly."), Requests.Version);
+        var path = temp.Write("rec.jsonl",
+            Requests.AbductionLine("Bats are mammals.", true, 2, "they nurse their young.", "they have fur."),
+            "{\"key\":\"" + keyed.Key + "\",\"request\":" + keyed.CanonicalJson
+                + ",\"response\":{\"p_true\":0.83,\"p_false\":0.17,\"prompt_tokens\":12,\"completion_tokens\":1}}");
+
+        var model = await Load(path);
+        var generation = await model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 2), CancellationToken.None);
+        var answer = await model.ScoreAnswersAsync(Requests.Answer("Bats can fly."), CancellationToken.None);
+
+        Assert.Equal(2, model.Count);
+        Assert.Equal(["they nurse their young.", "they have fur."], generation.Texts);
+        Assert.Equal(TokenUsage.None, generation.Usage);
+        Assert.Equal(0.83, answer.True);
+        Assert.Equal(0.17, answer.False);
+        Assert.False(answer.Estimated);
+        Assert.Equal(new TokenUsage(12, 1), answer.Usage);
+    }
+
+    // The two example lines of src/Plumbline.Models/Recording/README.md; the key there was computed
+    // with coreutils sha256sum over the canonical request.
+    [Fact]
+    public async Task LoadAsync_FormatDocumentExample_LoadsAndReplays()
+    {
+        var path = temp.Write("example.jsonl",
+            """{"key":"f4d379ee403883e5a78a2acb4b98fe1bb62676d85314eea96769bc4c957de184","request":{"kind":"generate","purpose":"abduction","subject":"Bats are mammals.","answer":true,"n":2,"temperature":1.0,"top_p":1.0,"max_tokens":64,"stop":["\n"],"prompt_version":"1"},"response":{"texts":["they nurse their young.","they have fur."],"prompt_tokens":40,"completion_tokens":12}}""",
+            """{"request":{"kind":"answer","statement":"Bats are mammals.","prompt_version":"1"},"response":{"p_true":0.83,"p_false":0.17}}""");
+
+        var model = await RecordingLanguageModel.LoadAsync(path, "1", CancellationToken.None);
+        var texts = await model.GenerateAsync(
+            new GenerationRequest(GenerationPurpose.Abduction, "Bats are mammals.", true, "p", Decoding.Sampling(), 2), CancellationToken.None);
+        var answer = await model.ScoreAnswersAsync(new AnswerRequest("Bats are mammals.", "p"), CancellationToken.None);
+
+        Assert.Equal(["they nurse their young.", "they have fur."], texts.Texts);
+        Assert.Equal(new TokenUsage(40, 12), texts.Usage);
+        Assert.Equal(0.83, answer.True);
+    }
+
+    [Fact]
+    public async Task LoadAsync_IntegerSpelledReals_SameKeyAsEngineRequest()
+    {
+        var line = Requests.AbductionLine("Whales are fish.", false, 1, "whales breathe air.")
+            .Replace("\"temperature\":1.0,\"top_p\":1.0", "\"temperature\":1,\"top_p\":1e0", StringComparison.Ordinal);
+        var model = await Load(temp.Write("rec.jsonl", line));
+
+        var result = await model.GenerateAsync(Requests.Abduction("Whales are fish.", false, 1), CancellationToken.None);
+
+        Assert.Equal(["whales breathe air."], result.Texts);
+    }
+
+    [Fact]
+    public async Task LoadAsync_UnnormalisedProbabilities_Renormalised()
+    {
+        var model = await Load(temp.Write("rec.jsonl", Requests.AnswerLine("Bats can fly.", "0.6", "0.2")));
+
+        var answer = await model.ScoreAnswersAsync(Requests.Answer("Bats can fly."), CancellationToken.None);
+
+        Assert.Equal(0.75, answer.True, 12);
+        Assert.Equal(0.25, answer.False, 12);
+    }
+
+    [Fact]
+    public async Task GenerateAsync_MoreTextsThanN_ReturnsFirstN()
+    {
+        var model = await Load(temp.Write("rec.jsonl", Requests.AbductionLine("Bats are mammals.", true, 2, "one", "two", "three")));
+
+        var result = await model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 2), CancellationToken.None);
+
+        Assert.Equal(["one", "two"], result.Texts);
+    }
+
+    [Fact]
+    public async Task GenerateAsync_MissingEntry_MessageNamesPurposeAnswerCountSubjectAndFile()
+    {
+        var model = await Load(temp.Write("rec.jsonl", Requests.AnswerLine("Bats can fly.", "0.9", "0.1")));
+
+        var error = await Assert.ThrowsAsync<ModelRequestException>(() =>
+            model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 3), CancellationToken.None));
+
+        Assert.Equal("no recorded response for abduction (answer True, n=3) of \"Bats are mammals.\" in rec.jsonl", error.Message);
+    }
+
+    [Fact]
+    public async Task GenerateAsync_SameSubjectRecordedWithOtherN_MessagePointsAtThatLine()
+    {
+        var path = temp.Write("rec.jsonl",
+            Requests.AnswerLine("Bats can fly.", "0.9", "0.1"),
+            "",
+            Requests.AbductionLine("Bats are mammals.", true, 2, "a", "b"));
+        var model = await Load(path);
+
+        var error = await Assert.ThrowsAsync<ModelRequestException>(() =>
+            model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 3), CancellationToken.None));
+
+        Assert.EndsWith("(line 3 has it with other decoding settings or n)", error.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task GenerateAsync_NegationMissing_MessageNamesNegationWithoutAnswer()
+    {
+        var model = await Load(temp.Write("rec.jsonl", Requests.AnswerLine("Bats can fly.", "0.9", "0.1")));
+
+        var error = await Assert.ThrowsAsync<ModelRequestException>(() =>
+            model.GenerateAsync(Requests.Negation("Bats can fly."), CancellationToken.None));
+
+        Assert.Equal("no recorded response for negation (n=1) of \"Bats can fly.\" in rec.jsonl", error.Message);
+    }
+
+    [Fact]
+    public async Task ScoreAnswersAsync_MissingEntry_MessageNamesStatement()
+    {
+        var model = await Load(temp.Write("rec.jsonl", Requests.AbductionLine("Bats can fly.", true, 1, "they have wings.")));
+
+        var error = await Assert.ThrowsAsync<ModelRequestException>(() =>
+            model.ScoreAnswersAsync(Requests.Answer("Bats can fly."), CancellationToken.None));
+
+        Assert.Equal("no recorded answer probabilities for \"Bats can fly.\" in rec.jsonl", error.Message);
+    }
+
+    [Fact]
+    public async Task Describe_Loaded_IsRecordingAndFileName()
+    {
+        var model = await Load(temp.Write("demo.jsonl", Requests.AnswerLine("Bats can fly.", "0.9", "0.1")));
+
+        Assert.Equal("recording:demo.jsonl", model.Describe);
+    }
+
+    [Fact]
+    public async Task LoadAsync_DuplicateKeySameResponse_KeepsOneEntry()
+    {
+        var line = Requests.AnswerLine("Bats can fly.", "0.9", "0.1");
+
+        var model = await Load(temp.Write("rec.jsonl", line, line.Replace("0.9", "9e-1", StringComparison.Ordinal)));
+
+        Assert.Equal(1, model.Count);
+    }
+
+    [Fact]
+    public async Task LoadAsync_DuplicateKeyDifferentResponse_NamesBothLines()
+    {
+        var path = temp.Write("rec.jsonl",
+            Requests.AnswerLine("Bats can fly.", "0.9", "0.1"),
+            Requests.AnswerLine("Bats can fly.", "0.8", "0.2"));
+
+        var error = await Assert.ThrowsAsync<RecordingFormatException>(() => Load(path));
+
+        Assert.Equal($"{path}:2: key: same request as line 1 but a different response", error.Message);
+    }
+
+    [Fact]
+    public async Task LoadAsync_EmptyFile_NoEntries()
+    {
+        var path = temp.File("empty.jsonl");
+        await File.WriteAllTextAsync(path, "");
+
+        var model = await Load(path);
+
+        Assert.Equal(0, model.Count);
+    }
+
+    [Fact]
+    public async Task GenerateAsync_ManyParallelLookups_EachGetsItsOwnResponse()
+    {
+        const int subjects = 200;
+        var lines = Enumerable.Range(0, subjects)
+            .SelectMany(i => new[]
+            {
+                Requests.AbductionLine($"Statement {i}.", true, 1, $"true-{i}"),
+                Requests.AbductionLine($"Statement {i}.", false, 1, $"false-{i}"),
+                Requests.AnswerLine($"Statement {i}.", $"0.{i % 9 + 1}", $"0.{9 - i % 9}"),
+            })
+            .ToArray();
+        var model = await Load(temp.Write("rec.jsonl", lines));
+        var failures = 0;
+
+        await Parallel.ForEachAsync(Enumerable.Range(0, 4000), new ParallelOptions { MaxDegreeOfParallelism = 8 }, async (k, ct) =>
+        {
+            var i = k % subjects;
+            var answer = k % 2 == 0;
+            var generation = await model.GenerateAsync(Requests.Abduction($"Statement {i}.", answer, 1), ct);
+            var probabilities = await model.ScoreAnswersAsync(Requests.Answer($"Statement {i}."), ct);
+            if (generation.Texts.Single() != $"{(answer ? "true" : "false")}-{i}" || Math.Abs(probabilities.True - (i % 9 + 1) / 10.0) > 1e-9)
+            {
+                Interlocked.Increment(ref failures);
+            }
+        });
+
+        Assert.Equal(3 * subjects, model.Count);
+        Assert.Equal(0, failures);
+    }
+}
