@@ -1,0 +1,162 @@
+using System.Runtime.CompilerServices;
+using Plumbline.Core.Claims;
+using Plumbline.Core.Entailment;
+using Plumbline.Core.Language;
+using Plumbline.Core.MaxSat;
+using Plumbline.Core.Trees;
+
+namespace Plumbline.Core.Coherence;
+
+/// <summary>
+/// Judges claims: grows the explanation tree, scores every ordered pair of kept statements with the
+/// NLI model, and solves the weighted MAX-SAT problem for the most coherent truth assignment.
+/// </summary>
+public sealed class CoherenceEngine
+{
+    private readonly IEntailmentScorer scorer;
+    private readonly IMaxSatSolver solver;
+    private readonly CoherenceOptions options;
+    private readonly TimeProvider time;
+    private readonly TreeBuilder treeBuilder;
+
+    public CoherenceEngine(
+        ILanguageModel model,
+        IEntailmentScorer scorer,
+        IMaxSatSolver solver,
+        CoherenceOptions options,
+        TimeProvider time)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        this.scorer = scorer ?? throw new ArgumentNullException(nameof(scorer));
+        this.solver = solver ?? throw new ArgumentNullException(nameof(solver));
+        this.options = options ?? throw new ArgumentNullException(nameof(options));
+        this.time = time ?? throw new ArgumentNullException(nameof(time));
+        if (options.Shape.Levels.Count == 0 || options.Shape.Levels.Any(l => l.Width < 1))
+        {
+            throw new ArgumentException("the tree shape needs at least one level, each of width 1 or more", nameof(options));
+        }
+
+        ArgumentOutOfRangeException.ThrowIfNegativeOrZero(options.WeightScale);
+        treeBuilder = new TreeBuilder(model, options.Shape, options.Negation);
+    }
+
+    /// <summary>
+    /// Judges one claim. A failing backend gives a verdict with status <see cref="ClaimStatus.Failed"/>
+    /// instead of an exception, so that one bad claim does not lose a run; only cancellation throws.
+    /// </summary>
+    public async Task<Verdict> JudgeAsync(Claim claim, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(claim);
+        var meter = new CallMeter();
+        var stage = "building the explanation tree";
+        BuiltTree? built = null;
+        TimeSpan treeTime = TimeSpan.Zero, nliTime = TimeSpan.Zero, solveTime = TimeSpan.Zero;
+        var started = time.GetTimestamp();
+        try
+        {
+            built = await treeBuilder.BuildAsync(claim.Text, meter, cancellationToken);
+            treeTime = time.GetElapsedTime(started);
+            var tree = built.Tree;
+
+            stage = $"scoring statement pairs with {scorer.Describe}";
+            started = time.GetTimestamp();
+            var pairs = ClauseBuilder.OrderedPairs(tree);
+            IReadOnlyList<EntailmentScores> scores = pairs.Count == 0
+                ? []
+                : await scorer.ScoreAsync([.. pairs.Select(p => new SentencePair(p.Premise.Text, p.Hypothesis.Text))], cancellationToken);
+            var clauses = ClauseBuilder.Build(tree, scores, options.Weighting, options.WeightScale);
+            nliTime = time.GetElapsedTime(started);
+
+            stage = $"solving with {solver.Describe}";
+            started = time.GetTimestamp();
+            var problem = clauses.Problem;
+            var rootVariable = problem.VariableOf(tree.Root.Id);
+            var best = RequireAssignment(await solver.SolveAsync(problem.Problem, cancellationToken));
+            var answer = best.Assignment[rootVariable - 1];
+            // The margin is what the claim's other value would cost: solve once more with the root pinned there.
+            var pinned = problem.Problem.With(WeightedClause.Hard(answer ? -rootVariable : rootVariable));
+            var other = RequireAssignment(await solver.SolveAsync(pinned, cancellationToken));
+            solveTime = time.GetElapsedTime(started);
+
+            var margin = (double)(other.Cost - best.Cost) / problem.Scale;
+            var status = margin <= options.ContestedThreshold ? ClaimStatus.Contested
+                : answer != built.DirectAnswer ? ClaimStatus.Overturned
+                : ClaimStatus.Settled;
+
+            return new Verdict(
+                claim,
+                answer,
+                built.DirectAnswer,
+                status,
+                margin,
+                IsTwoSided(tree),
+                tree,
+                clauses.Links,
+                FalsifiedBy(problem, best.Assignment),
+                best.Status,
+                best.Cost,
+                tree.Statements.Count(s => s.IsIntegral),
+                tree.Statements.Count(s => !s.Kept),
+                meter.Calls,
+                meter.Tokens,
+                meter.Estimated,
+                new VerdictTimings(treeTime, nliTime, solveTime),
+                Error: null,
+                Problem: problem);
+        }
+        catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
+        {
+            throw;
+        }
+        catch (Exception ex)
+        {
+            return Verdict.Failed(
+                claim,
+                $"claim {claim.Id}: {stage} failed: {ex.Message}",
+                built?.Tree,
+                built?.DirectAnswer,
+                meter.Calls,
+                meter.Tokens,
+                new VerdictTimings(treeTime, nliTime, solveTime));
+        }
+    }
+
+    /// <summary>Judges claims one after another (requests within a claim run concurrently), yielding each verdict as it is ready.</summary>
+    public async IAsyncEnumerable<Verdict> JudgeAllAsync(
+        IAsyncEnumerable<Claim> claims,
+        [EnumeratorCancellation] CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(claims);
+        await foreach (var claim in claims.WithCancellation(cancellationToken))
+        {
+            yield return await JudgeAsync(claim, cancellationToken);
+        }
+    }
+
+    /// <summary>The claim's own kept explanations include an integral one written for True and one written for False.</summary>
+    internal static bool IsTwoSided(ExplanationTree tree)
+    {
+        var explanations = tree.Statements.Where(s => s.Kept && s.Depth == 1 && s.IsIntegral).ToList();
+        return explanations.Any(s => s.GeneratedFor == true) && explanations.Any(s => s.GeneratedFor == false);
+    }
+
+    private static MaxSatSolution RequireAssignment(MaxSatSolution solution) =>
+        solution.HasAssignment
+            ? solution
+            : throw new InvalidOperationException($"the solver found no assignment (status {solution.Status})");
+
+    private static List<FalsifiedClause> FalsifiedBy(CoherenceProblem problem, IReadOnlyList<bool> assignment)
+    {
+        var falsified = new List<FalsifiedClause>();
+        var clauses = problem.Problem.Clauses;
+        for (var i = 0; i < clauses.Count; i++)
+        {
+            if (!clauses[i].IsSatisfiedBy(assignment))
+            {
+                falsified.Add(new FalsifiedClause(i, problem.Origins[i], clauses[i].Literals, (double)clauses[i].Weight / problem.Scale));
+            }
+        }
+
+        return falsified;
+    }
+}

@@ -1,0 +1,203 @@
+using Plumbline.Core.Claims;
+using Plumbline.Core.Coherence;
+using Plumbline.Core.Language;
+using Plumbline.Core.MaxSat;
+using Plumbline.Core.Tests.Doubles;
+using Plumbline.Core.Trees;
+using static Plumbline.Core.Tests.Coherence.TreeBuilderTests;
+
+namespace Plumbline.Core.Tests.Coherence;
+
+public sealed class CoherenceEngineTests
+{
+    private static readonly CoherenceOptions OneLevel = CoherenceOptions.Default with
+    {
+        Shape = new TreeShape([new LevelShape(1, Decoding.Greedy())]),
+    };
+
+    private static readonly Claim Claim = new("c1", "C");
+
+    /// <summary>
+    /// Hand-built example. #1 "A" (for True) is integral/True with belief 0.8 and entails the claim;
+    /// #2 "B" (for False) is integral/True with belief 0.9 and contradicts the claim; A contradicts B.
+    /// Clauses (weights x1000): x2 800, x3 900, -x2 v x1 1000, -x2 v -x3 1000, -x3 v -x1 1000.
+    /// By hand: claim false, A false, B true breaks only "belief: #1" (800); the best with the claim
+    /// true is A true, B false, breaking "belief: #2" (900). Answer false, margin (900 - 800) / 1000.
+    /// </summary>
+    private static (ScriptedModel Model, ScriptedScorer Scorer) Example(double directPTrue)
+    {
+        var model = new ScriptedModel();
+        model.Explanations[("C", true)] = ["A"];
+        model.Explanations[("C", false)] = ["B"];
+        model.PTrue["C"] = directPTrue;
+        model.PTrue["Not: C"] = 0.5;
+        model.PTrue["A"] = 0.8;
+        model.PTrue["Not: A"] = 0.2;
+        model.PTrue["B"] = 0.9;
+        model.PTrue["Not: B"] = 0.1;
+        var scorer = new ScriptedScorer();
+        scorer.Scores[("A", "C")] = ScriptedScorer.Entails(0.9);
+        scorer.Scores[("B", "C")] = ScriptedScorer.Contradicts(0.8);
+        scorer.Scores[("A", "B")] = ScriptedScorer.Contradicts(0.7);
+        return (model, scorer);
+    }
+
+    private static CoherenceEngine Engine(ILanguageModel model, ScriptedScorer scorer, CoherenceOptions? options = null, IMaxSatSolver? solver = null) =>
+        new(model, scorer, solver ?? new ExhaustiveSolver(), options ?? OneLevel, TimeProvider.System);
+
+    [Fact]
+    public async Task JudgeAsync_HandBuiltExample_AnswerAndMarginAsComputedByHand()
+    {
+        var (model, scorer) = Example(directPTrue: 0.7);
+        var solver = new ExhaustiveSolver();
+
+        var verdict = await Engine(model, scorer, solver: solver).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Null(verdict.Error);
+        Assert.False(verdict.Answer);
+        Assert.True(verdict.DirectAnswer);
+        Assert.Equal(0.1, verdict.Margin, 9);
+        Assert.Equal(ClaimStatus.Overturned, verdict.Status);
+        Assert.True(verdict.Overturned);
+        Assert.Equal(800, verdict.ObjectiveCost);
+        Assert.Equal(SolveStatus.Optimal, verdict.SolveStatus);
+        var falsified = Assert.Single(verdict.Falsified);
+        Assert.Equal(("belief: #1", 0.8), (falsified.Origin, falsified.Weight));
+        Assert.Equal(3, verdict.Links.Count);
+        Assert.True(verdict.TwoSided);
+        Assert.Equal(3, verdict.IntegralCount);
+        Assert.Equal(0, verdict.PrunedCount);
+        // Root: negation + 2 answers; level 1: 2 abductions, 2 negations, 4 answers.
+        Assert.Equal(11, verdict.ModelCalls);
+        Assert.Equal(model.Generations.Count + model.Answers.Count, verdict.ModelCalls);
+        var batch = Assert.Single(scorer.Batches);
+        Assert.Equal(6, batch.Count);
+        // The second solve pins the claim to true with one extra hard unit clause.
+        Assert.Equal(2, solver.Problems.Count);
+        var pin = Assert.Single(solver.Problems[1].Clauses, c => c.IsHard);
+        Assert.Equal([1], pin.Literals);
+        Assert.Equal(5, verdict.Problem!.Problem.Clauses.Count);
+    }
+
+    [Theory]
+    [InlineData(0.7, 0.0, ClaimStatus.Overturned)]
+    [InlineData(0.3, 0.0, ClaimStatus.Settled)]
+    [InlineData(0.7, 0.1, ClaimStatus.Contested)] // margin equal to the threshold is contested
+    [InlineData(0.3, 0.1, ClaimStatus.Contested)]
+    [InlineData(0.3, 0.09, ClaimStatus.Settled)]
+    public async Task JudgeAsync_DirectAnswerAndThreshold_GiveStatus(double directPTrue, double threshold, ClaimStatus expected)
+    {
+        var (model, scorer) = Example(directPTrue);
+
+        var verdict = await Engine(model, scorer, OneLevel with { ContestedThreshold = threshold }).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Equal(expected, verdict.Status);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_NoExplanations_TieIsContested()
+    {
+        var model = new ScriptedModel();
+        model.PTrue["C"] = 0.6;
+        model.PTrue["Not: C"] = 0.6;
+        var scorer = new ScriptedScorer();
+
+        var verdict = await Engine(model, scorer).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Equal(ClaimStatus.Contested, verdict.Status);
+        Assert.Equal(0.0, verdict.Margin);
+        Assert.Empty(scorer.Batches);
+        Assert.Equal(0, verdict.ObjectiveCost);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_MissingAnswer_FailedWithClaimAndReason()
+    {
+        var (model, scorer) = Example(0.7);
+        model.PTrue.Remove("Not: B");
+
+        var verdict = await Engine(model, scorer).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Equal(ClaimStatus.Failed, verdict.Status);
+        Assert.Null(verdict.Answer);
+        Assert.Contains("claim c1", verdict.Error, StringComparison.Ordinal);
+        Assert.Contains("explanation tree", verdict.Error, StringComparison.Ordinal);
+        Assert.Contains("Not: B", verdict.Error, StringComparison.Ordinal);
+        Assert.True(verdict.ModelCalls > 0);
+        Assert.Empty(scorer.Batches);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_SolverWithoutSolution_FailedNamingTheSolver()
+    {
+        var (model, scorer) = Example(0.7);
+
+        var verdict = await Engine(model, scorer, solver: new NoSolution()).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Equal(ClaimStatus.Failed, verdict.Status);
+        Assert.Contains("solving with no-solution", verdict.Error, StringComparison.Ordinal);
+        Assert.True(verdict.DirectAnswer);
+        Assert.NotNull(verdict.Tree);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_Cancelled_Throws()
+    {
+        var (_, scorer) = Example(0.7);
+        var slow = new ScriptedModel { PTrueWith = _ => 0.5, Latency = TimeSpan.FromSeconds(30) };
+        using var cancellation = new CancellationTokenSource(TimeSpan.FromMilliseconds(50));
+
+        await Assert.ThrowsAnyAsync<OperationCanceledException>(() => Engine(slow, scorer).JudgeAsync(Claim, cancellation.Token));
+    }
+
+    [Fact]
+    public async Task JudgeAllAsync_OneClaimFails_OthersStillJudgedInOrder()
+    {
+        var (model, scorer) = Example(0.7);
+        var claims = new[] { new Claim("bad", "Unknown claim"), Claim }.ToAsyncEnumerable();
+
+        var verdicts = new List<Verdict>();
+        await foreach (var verdict in Engine(model, scorer).JudgeAllAsync(claims, CancellationToken.None))
+        {
+            verdicts.Add(verdict);
+        }
+
+        Assert.Equal(["bad", "c1"], verdicts.Select(v => v.Claim.Id));
+        Assert.Equal([ClaimStatus.Failed, ClaimStatus.Overturned], verdicts.Select(v => v.Status));
+    }
+
+    [Fact]
+    public async Task JudgeAsync_DefaultShapeWithLatency_RequestsOfALevelOverlap()
+    {
+        var model = ScriptedModel.Growing(s => s.StartsWith("Not: ", StringComparison.Ordinal) ? 0.3 : 0.6, TimeSpan.FromMilliseconds(40));
+
+        var verdict = await Engine(model, new ScriptedScorer(), CoherenceOptions.Default).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.NotEqual(ClaimStatus.Failed, verdict.Status);
+        Assert.True(model.MaxInFlight > 1, $"only {model.MaxInFlight} request in flight at a time");
+    }
+
+    [Theory]
+    [InlineData(Integrity.IntegralTrue, Integrity.IntegralFalse, true, true)]
+    [InlineData(Integrity.IntegralTrue, Integrity.NotIntegral, true, false)]
+    [InlineData(Integrity.IntegralTrue, Integrity.IntegralTrue, false, false)]
+    public void IsTwoSided_KeptIntegralExplanationsForBothAnswers(Integrity forTrue, Integrity forFalse, bool secondKept, bool expected)
+    {
+        var tree = new ExplanationTree(
+        [
+            Node(0, null, Integrity.NotIntegral),
+            Node(1, 0, forTrue, generatedFor: true),
+            Node(2, 0, forFalse, generatedFor: false) with { Kept = secondKept },
+        ]);
+
+        Assert.Equal(expected, CoherenceEngine.IsTwoSided(tree));
+    }
+
+    private sealed class NoSolution : IMaxSatSolver
+    {
+        public string Describe => "no-solution";
+
+        public Task<MaxSatSolution> SolveAsync(MaxSatProblem problem, CancellationToken cancellationToken) =>
+            Task.FromResult(new MaxSatSolution(SolveStatus.Unknown, 0, [], [], TimeSpan.Zero));
+    }
+}

@@ -1,0 +1,92 @@
+using System.Text.Json;
+using Plumbline.Core.Claims;
+using Plumbline.Core.Coherence;
+using Plumbline.Core.Entailment;
+using Plumbline.Core.Language;
+using Plumbline.Core.MaxSat;
+using Plumbline.Core.Runs;
+using Plumbline.Core.Trees;
+
+namespace Plumbline.Core.Tests.Runs;
+
+public sealed class RunFiguresTests
+{
+    private static Verdict Judged(string id, bool? gold, bool direct, bool answer, ClaimStatus status, double margin, bool twoSided, params EntailmentKind[] links) =>
+        new(new Claim(id, "text", gold), answer, direct, status, margin, twoSided, null,
+            [.. links.Select(k => new Link(0, 1, k, 0.9))], [], SolveStatus.Optimal, 0, 1, 0, 10,
+            new TokenUsage(100, 10), false, VerdictTimings.None);
+
+    private static readonly Verdict[] Verdicts =
+    [
+        Judged("a", true, direct: true, answer: true, ClaimStatus.Settled, 2.0, twoSided: false, EntailmentKind.Entailment),
+        Judged("b", false, direct: true, answer: false, ClaimStatus.Overturned, 1.0, twoSided: true, EntailmentKind.Contradiction, EntailmentKind.Entailment),
+        Judged("c", true, direct: false, answer: false, ClaimStatus.Contested, 0.0, twoSided: true),
+        Judged("d", null, direct: true, answer: true, ClaimStatus.Settled, 3.0, twoSided: false),
+        Verdict.Failed(new Claim("e", "text", true), "claim e: broken", modelCalls: 4, tokens: new TokenUsage(7, 3)),
+    ];
+
+    [Fact]
+    public void From_MixedVerdicts_CountsAndRates()
+    {
+        var figures = RunFigures.From(Verdicts, TimeSpan.FromSeconds(12));
+
+        Assert.Equal((5, 4, 2, 1, 1, 1, 3), (figures.Claims, figures.Judged, figures.Settled, figures.Overturned, figures.Contested, figures.Failed, figures.Labelled));
+        // Direct: a right, b wrong, c wrong -> 1/3; coherent: a, b right, c wrong -> 2/3.
+        Assert.Equal((1, 3), (figures.DirectAccuracy!.Successes, figures.DirectAccuracy.Total));
+        Assert.Equal((2, 3), (figures.CoherentAccuracy!.Successes, figures.CoherentAccuracy.Total));
+        Assert.Equal(Proportion.Wilson(2, 3), figures.CoherentAccuracy);
+        Assert.Equal(0.25, figures.OverturnRate);
+        Assert.Equal(0.25, figures.ContestedRate);
+        Assert.Equal(0.5, figures.TwoSidedRate);
+        Assert.Equal(1.5, figures.MeanMargin);
+        Assert.Equal((2, 1), (figures.EntailmentLinks, figures.ContradictionLinks));
+        Assert.Equal(44, figures.ModelCalls);
+        Assert.Equal(new TokenUsage(407, 43), figures.Tokens);
+        Assert.Equal(TimeSpan.FromSeconds(12), figures.WallTime);
+    }
+
+    [Fact]
+    public void From_NoLabels_NoAccuracy()
+    {
+        var figures = RunFigures.From([Verdicts[3]], TimeSpan.Zero);
+
+        Assert.Null(figures.DirectAccuracy);
+        Assert.Null(figures.CoherentAccuracy);
+    }
+
+    [Fact]
+    public void From_Empty_ZeroRates()
+    {
+        var figures = RunFigures.From([], TimeSpan.Zero);
+
+        Assert.Equal((0, 0.0, 0.0), (figures.Claims, figures.OverturnRate, figures.MeanMargin));
+    }
+
+    [Fact]
+    public void Create_StartedAndFinished_WallTimeAndSchemaVersion()
+    {
+        var started = new DateTimeOffset(2025, 1, 2, 3, 4, 5, TimeSpan.Zero);
+        var settings = RunSettings.From(CoherenceOptions.Default, "scripted", "nli", "exhaustive", seed: 7);
+
+        var report = RunReport.Create("0.1.0", settings, started, started.AddMinutes(2), Verdicts);
+
+        Assert.Equal(RunReport.CurrentSchemaVersion, report.SchemaVersion);
+        Assert.Equal(TimeSpan.FromMinutes(2), report.Figures.WallTime);
+        Assert.Equal((3, 1000, PromptBook.PromptVersion), (report.Settings.Shape.Levels[0].Width, report.Settings.WeightScale, report.Settings.PromptVersion));
+    }
+
+    [Fact]
+    public void Serialize_Verdict_LeavesOutProblemAndDerivedViews()
+    {
+        var tree = new ExplanationTree([new Statement(0, "C", "Not C", true, 0, null, null, 0.6, 0.3, Integrity.IntegralTrue, 2.0 / 3, true)]);
+        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), ["belief: #0"], [0], 1000);
+        var verdict = Verdicts[0] with { Tree = tree, Problem = problem };
+
+        var json = JsonSerializer.Serialize(verdict);
+
+        Assert.DoesNotContain("\"Problem\"", json, StringComparison.Ordinal);
+        Assert.DoesNotContain("\"Root\"", json, StringComparison.Ordinal);
+        Assert.DoesNotContain("\"Kept\":[", json, StringComparison.Ordinal);
+        Assert.Contains("\"Statements\":[", json, StringComparison.Ordinal);
+    }
+}
