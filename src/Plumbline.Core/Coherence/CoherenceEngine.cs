@@ -71,11 +71,15 @@ public sealed class CoherenceEngine
             started = time.GetTimestamp();
             var problem = clauses.Problem;
             var rootVariable = problem.VariableOf(tree.Root.Id);
-            var best = RequireAssignment(await solver.SolveAsync(problem.Problem, cancellationToken));
-            var answer = best.Assignment[rootVariable - 1];
-            // The margin is what the claim's other value would cost: solve once more with the root pinned there.
-            var pinned = problem.Problem.With(WeightedClause.Hard(answer ? -rootVariable : rootVariable));
-            var other = RequireAssignment(await solver.SolveAsync(pinned, cancellationToken));
+            // One solve per value of the claim, side by side: the cheaper one is the optimum and the
+            // other one's extra cost is the margin. A tie keeps the direct answer (and is contested),
+            // so the outcome never depends on which of two equal optima a solver happens to return.
+            var solutions = await Task.WhenAll(
+                solver.SolveAsync(problem.Problem.With(WeightedClause.Hard(rootVariable)), cancellationToken),
+                solver.SolveAsync(problem.Problem.With(WeightedClause.Hard(-rootVariable)), cancellationToken));
+            var (ifTrue, ifFalse) = (RequireAssignment(solutions[0]), RequireAssignment(solutions[1]));
+            var answer = ifTrue.Cost == ifFalse.Cost ? built.DirectAnswer : ifTrue.Cost < ifFalse.Cost;
+            var (best, other) = answer ? (ifTrue, ifFalse) : (ifFalse, ifTrue);
             solveTime = time.GetElapsedTime(started);
 
             var margin = (double)(other.Cost - best.Cost) / problem.Scale;
@@ -93,7 +97,7 @@ public sealed class CoherenceEngine
                 tree,
                 clauses.Links,
                 FalsifiedBy(problem, best.Assignment),
-                best.Status,
+                other.Status == SolveStatus.Optimal ? best.Status : other.Status,
                 best.Cost,
                 tree.Statements.Count(s => s.IsIntegral),
                 tree.Statements.Count(s => !s.Kept),

@@ -16,8 +16,8 @@ namespace Plumbline.Core.Coherence;
 /// <param name="Tree">All statements, pruned ones included; null when the tree could not be built.</param>
 /// <param name="Links">Entailments and contradictions among kept statements.</param>
 /// <param name="Falsified">Soft clauses the optimum breaks.</param>
-/// <param name="SolveStatus">The solver's status; null when no solve happened.</param>
-/// <param name="ObjectiveCost">Scaled cost of the optimum, as in the exported WCNF; null when no solve happened.</param>
+/// <param name="SolveStatus">Optimal when both solves (claim true, claim false) proved optimality, else the weaker status; null when no solve happened.</param>
+/// <param name="ObjectiveCost">Scaled cost of the optimum, as an exported WCNF's optimum; null when no solve happened.</param>
 /// <param name="IntegralCount">Statements (root included) that passed the integrity test.</param>
 /// <param name="PrunedCount">Statements removed by pruning.</param>
 /// <param name="ModelCalls">Language model requests made for this claim.</param>

@@ -72,11 +72,12 @@ public sealed class CoherenceEngineTests
         Assert.Equal(model.Generations.Count + model.Answers.Count, verdict.ModelCalls);
         var batch = Assert.Single(scorer.Batches);
         Assert.Equal(6, batch.Count);
-        // The second solve pins the claim to true with one extra hard unit clause.
-        Assert.Equal(2, solver.Problems.Count);
-        var pin = Assert.Single(solver.Problems[1].Clauses, c => c.IsHard);
-        Assert.Equal([1], pin.Literals);
+        // One solve per value of the claim, each pinned by one extra hard unit clause.
+        Assert.Equal(
+            ["1", "-1"],
+            solver.Problems.Select(p => string.Join(' ', Assert.Single(p.Clauses, c => c.IsHard).Literals)));
         Assert.Equal(5, verdict.Problem!.Problem.Clauses.Count);
+        Assert.DoesNotContain(verdict.Problem.Problem.Clauses, c => c.IsHard);
     }
 
     [Theory]
@@ -95,7 +96,7 @@ public sealed class CoherenceEngineTests
     }
 
     [Fact]
-    public async Task JudgeAsync_NoExplanations_TieIsContested()
+    public async Task JudgeAsync_NoExplanations_TieIsContestedAndKeepsDirectAnswer()
     {
         var model = new ScriptedModel();
         model.PTrue["C"] = 0.6;
@@ -106,6 +107,8 @@ public sealed class CoherenceEngineTests
 
         Assert.Equal(ClaimStatus.Contested, verdict.Status);
         Assert.Equal(0.0, verdict.Margin);
+        Assert.True(verdict.Answer);
+        Assert.True(verdict.DirectAnswer);
         Assert.Empty(scorer.Batches);
         Assert.Equal(0, verdict.ObjectiveCost);
     }
@@ -191,6 +194,31 @@ public sealed class CoherenceEngineTests
         ]);
 
         Assert.Equal(expected, CoherenceEngine.IsTwoSided(tree));
+    }
+
+    [Fact]
+    public async Task JudgeAsync_OneSolveUnproven_StatusIsTheWeakerOne()
+    {
+        var (model, scorer) = Example(0.7);
+
+        var verdict = await Engine(model, scorer, solver: new UnprovenWhenClaimTrue()).JudgeAsync(Claim, CancellationToken.None);
+
+        // The optimum (claim false) is proven, the other side is not, so neither is the margin.
+        Assert.False(verdict.Answer);
+        Assert.Equal(SolveStatus.Feasible, verdict.SolveStatus);
+    }
+
+    private sealed class UnprovenWhenClaimTrue : IMaxSatSolver
+    {
+        private readonly ExhaustiveSolver inner = new();
+
+        public string Describe => "unproven";
+
+        public async Task<MaxSatSolution> SolveAsync(MaxSatProblem problem, CancellationToken cancellationToken)
+        {
+            var solution = await inner.SolveAsync(problem, cancellationToken);
+            return problem.Clauses.Any(c => c.IsHard && c.Literals.SequenceEqual([1])) ? solution with { Status = SolveStatus.Feasible } : solution;
+        }
     }
 
     private sealed class NoSolution : IMaxSatSolver
