@@ -1,0 +1,22 @@
+using Plumbline.Benchmarks.Engine;
+
+// One benchmark per first argument; each takes its own options after the name.
+var name = args.Length > 0 ? args[0] : string.Empty;
+var options = args.Skip(1).ToArray();
+return name switch
+{
+    "engine" => await EngineOverhead.RunAsync(options, Console.Out, Console.Error),
+    _ => Usage(name),
+};
+
+static int Usage(string name)
+{
+    if (name.Length > 0)
+    {
+        Console.Error.WriteLine($"unknown benchmark '{name}'");
+    }
+
+    Console.Error.WriteLine("usage: Plumbline.Benchmarks <benchmark> [options]");
+    Console.Error.WriteLine("  engine [--runs N] [--warmup N] [--workers N]   engine overhead per full-size tree (instant model and NLI, CP-SAT)");
+    return 2;
+}
