@@ -1,3 +1,5 @@
+using System.Text.Json.Serialization;
+
 namespace Plumbline.Core.Coherence;
 
 /// <summary>Where the time of one claim went.</summary>
@@ -5,5 +7,6 @@ public sealed record VerdictTimings(TimeSpan Tree, TimeSpan Nli, TimeSpan Solve)
 {
     public static VerdictTimings None { get; } = new(TimeSpan.Zero, TimeSpan.Zero, TimeSpan.Zero);
 
+    [JsonIgnore]
     public TimeSpan Total => Tree + Nli + Solve;
 }

@@ -1,3 +1,5 @@
+using System.Text.Json.Serialization;
+
 namespace Plumbline.Core.Trees;
 
 /// <summary>One node of an explanation tree: the claim itself (id 0) or an explanation the model wrote.</summary>
@@ -27,8 +29,10 @@ public sealed record Statement(
     double Belief,
     bool Kept)
 {
+    [JsonIgnore]
     public bool IsRoot => Id == 0;
 
+    [JsonIgnore]
     public bool IsIntegral => Integrity != Integrity.NotIntegral;
 
     /// <summary>The belief of a statement given the two probabilities of "True".</summary>
