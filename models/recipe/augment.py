@@ -1,0 +1,256 @@
+"""Generated training pairs, made reproducibly from the TRAIN premises only (never from evaluate files).
+
+Sources (each tagged in the output so the model card can count them and ablations can drop them):
+  negation       P vs an explicit negation of P (prefix or auxiliary + 'not'), both directions -> contradiction;
+                 double negation and "It is true that P" -> entailment
+  cohyponym      one noun replaced by a WordNet sibling (same direct hypernym) -> contradiction
+  antonym        one adjective or noun replaced by a WordNet antonym -> contradiction
+  hypernym       one noun replaced by its WordNet hypernym -> entailment
+  number         one number word or numeral replaced by another -> contradiction
+  colour         one colour word replaced by another -> contradiction
+  swapped        premise and hypothesis of a training contradiction exchanged -> contradiction
+"""
+import random
+import re
+
+WORDNET = "/usr/share/wordnet"
+STOP = set("""a an the and or but of to in on at by for with from into onto over under is are was were be been
+being has have had do does did not no this that these those there here his her their its our your my some
+any all one two three man woman men women person people""".split())
+# Kept in training; held-out negation forms for evaluation live in evaluate.py.
+PREFIXES = ["It is not true that {}", "It is false that {}", "It is not the case that {}"]
+AUXILIARIES = ["is", "are", "was", "were", "can", "will", "has", "have", "could", "would", "should", "must"]
+NUMBERS = ["two", "three", "four", "five", "six", "seven", "eight", "nine", "ten", "twelve", "twenty"]
+COLOURS = ["red", "blue", "green", "yellow", "black", "white", "orange", "purple", "pink", "brown", "gray", "grey"]
+WORD = re.compile(r"[A-Za-z]+")
+DETERMINERS = set("a an the his her their its my our your this that some another each every".split())
+FOLLOWERS = set("""in on at with and or of is are was were while near behind by for from to into under over
+beside next as that who which during through across along outside inside""".split())
+
+
+class WordNet:
+    """Just enough of the WordNet 3.0 database files: first senses, hypernyms, hyponyms, antonyms."""
+
+    def __init__(self, root=WORDNET):
+        self.synsets = {}
+        self.index = {}
+        self.sense_counts = {}
+        for pos, name in (("n", "noun"), ("v", "verb"), ("r", "adv")):
+            with open(f"{root}/index.{name}", encoding="latin-1") as f:
+                for line in f:
+                    if not line.startswith("  "):
+                        parts = line.split()
+                        self.sense_counts[(pos, parts[0])] = int(parts[2])
+        for pos, name in (("n", "noun"), ("a", "adj")):
+            with open(f"{root}/data.{name}", encoding="latin-1") as f:
+                for line in f:
+                    if line.startswith("  "):
+                        continue
+                    head = line.split(" | ")[0].split()
+                    offset, count = head[0], int(head[3], 16)
+                    lemmas = [head[4 + 2 * i].lower() for i in range(count)]
+                    rest = head[4 + 2 * count:]
+                    pointers = []
+                    for i in range(int(rest[0])):
+                        symbol, target, tpos, srctgt = rest[1 + 4 * i: 5 + 4 * i]
+                        pointers.append((symbol, target, "a" if tpos == "s" else tpos, int(srctgt[:2], 16)))
+                    self.synsets[(pos, offset)] = (lemmas, pointers)
+            with open(f"{root}/index.{name}", encoding="latin-1") as f:
+                for line in f:
+                    if line.startswith("  "):
+                        continue
+                    parts = line.split()
+                    self.index[(pos, parts[0])] = parts[-int(parts[2]):]
+                    self.sense_counts[(pos, parts[0])] = int(parts[2])
+
+    def first_sense(self, word, pos):
+        offsets = self.index.get((pos, word))
+        return (pos, offsets[0]) if offsets else None
+
+    def related(self, key, symbols):
+        return [(p, o) for s, o, p, _ in self.synsets[key][1] if s in symbols and (p, o) in self.synsets]
+
+    def depth(self, key, limit=20):
+        d = 0
+        while d < limit:
+            up = self.related(key, {"@", "@i"})
+            if not up:
+                return d
+            key, d = up[0], d + 1
+        return d
+
+    def common_lemma(self, key):
+        """A single-word lemma whose most frequent sense is this synset (avoids rare readings)."""
+        for lemma in self.synsets[key][0]:
+            if lemma.isalpha() and self.first_sense(lemma, key[0]) == key:
+                return lemma
+        return None
+
+    def mostly_noun(self, word):
+        """True when the word is read as a noun more often than as anything else (by sense count)."""
+        nouns = self.sense_counts.get(("n", word), 0)
+        others = max(self.sense_counts.get((p, word), 0) for p in ("v", "a", "r"))
+        return nouns > others and not word.endswith(("ing", "ed", "ly"))
+
+    def cohyponyms(self, word):
+        key = self.first_sense(word, "n") if self.mostly_noun(word) else None
+        if not key or self.depth(key) < 6:
+            return []
+        out = []
+        for parent in self.related(key, {"@"}):
+            for sibling in self.related(parent, {"~"}):
+                lemma = sibling != key and self.common_lemma(sibling)
+                if lemma and lemma != word:
+                    out.append(lemma)
+        return out
+
+    def hypernyms(self, word):
+        key = self.first_sense(word, "n") if self.mostly_noun(word) else None
+        if not key or self.depth(key) < 6:
+            return []
+        return [l for p in self.related(key, {"@"}) if (l := self.common_lemma(p)) and l != word]
+
+    def antonyms(self, word):
+        out = []
+        for pos in ("a", "n"):
+            key = self.first_sense(word, pos)
+            if not key:
+                continue
+            lemmas, pointers = self.synsets[key]
+            position = lemmas.index(word) + 1 if word in lemmas else 0
+            for symbol, target, tpos, source in pointers:
+                if symbol == "!" and source in (0, position) and (tpos, target) in self.synsets:
+                    for lemma in self.synsets[(tpos, target)][0]:
+                        if lemma.isalpha():
+                            out.append(lemma)
+                            break
+        return out
+
+
+def lower_first(sentence):
+    s = sentence.strip().rstrip(".!?")
+    first = s.split(" ")[0]
+    keep = len(first) > 1 and first.isupper()  # an acronym keeps its capitals
+    return s if keep else s[:1].lower() + s[1:]
+
+
+def sentence_case(s):
+    s = s.strip().rstrip(".!?")
+    return s[:1].upper() + s[1:] + "."
+
+
+def fix_articles(words):
+    for i in range(len(words) - 1):
+        if words[i].lower() in ("a", "an"):
+            article = "an" if words[i + 1][:1].lower() in "aeiou" else "a"
+            words[i] = article.capitalize() if words[i][0].isupper() else article
+    return words
+
+
+def replace_word(sentence, index, new):
+    words = sentence.split(" ")
+    old = words[index]
+    core = WORD.search(old).group(0)
+    words[index] = old.replace(core, new.capitalize() if core[0].isupper() else new, 1)
+    return " ".join(fix_articles(words))
+
+
+def verbal_negation(sentence):
+    words = sentence.split(" ")
+    for i, w in enumerate(words):
+        if w.lower() in AUXILIARIES and i + 1 < len(words) and words[i + 1].lower() not in ("not", "no"):
+            return " ".join(words[: i + 1] + ["not"] + words[i + 1:])
+    return None
+
+
+def head_noun_position(words, i):
+    """A cheap stand-in for a part-of-speech tagger: a word right after a determiner and followed by
+    punctuation, the end, or a function word is read as a head noun ('a dog in ...', 'the street.')."""
+    if i == 0 or words[i - 1].lower() not in DETERMINERS:
+        return False
+    return i + 1 == len(words) or words[i][-1:] in ".,;:!?" or words[i + 1].lower() in FOLLOWERS
+
+
+def substitutions(sentence, finder, rng, nouns_only=True):
+    words = sentence.split(" ")
+    spots = []
+    for i, w in enumerate(words):
+        m = WORD.fullmatch(w.strip(".,;:!?\"'"))
+        if nouns_only and not head_noun_position(words, i):
+            continue
+        if m and len(m.group(0)) > 2 and m.group(0).lower() not in STOP and m.group(0).lower() not in NUMBERS + COLOURS:
+            options = finder(m.group(0).lower())
+            if options:
+                spots.append((i, options))
+    if not spots:
+        return None
+    i, options = rng.choice(spots)
+    return replace_word(sentence, i, rng.choice(sorted(set(options))))
+
+
+def swap_from(sentence, vocabulary, rng):
+    words = sentence.split(" ")
+    spots = [i for i, w in enumerate(words) if w.strip(".,;:!?").lower() in vocabulary]
+    if not spots:
+        return None
+    i = rng.choice(spots)
+    old = words[i].strip(".,;:!?").lower()
+    return replace_word(sentence, i, rng.choice([v for v in vocabulary if v != old and {v, old} != {"gray", "grey"}]))
+
+
+def generate(train, seed, quotas):
+    """train: dict of source -> [(premise, hypothesis, label)]. Returns [(p, h, label, source)]."""
+    rng = random.Random(seed)
+    wordnet = WordNet()
+    premises = sorted({p for name in ("snli_test", "cad_train", "cad_test") for p, _, _ in train[name]
+                       if 4 <= len(p.split()) <= 30})
+    longer = sorted({p for p, _, _ in train["mnli_mismatched"] if 5 <= len(p.split()) <= 30})
+    rng.shuffle(premises)
+    rng.shuffle(longer)
+    out = []
+
+    def take(source, label, pool, make, quota):
+        made = 0
+        for p in pool:
+            if made >= quota:
+                break
+            h = make(p)
+            if h and h.strip().rstrip(".") != p.strip().rstrip("."):
+                out.append((p, sentence_case(h) if source == "negation" else h, label, source))
+                made += 1
+
+    neg_pool = premises[:6000] + longer[:3000]
+    rng.shuffle(neg_pool)
+    q = quotas["negation"] // 6
+    take("negation", "contradiction", neg_pool[0:], lambda p: rng.choice(PREFIXES).format(lower_first(p)), q)
+    take("negation", "contradiction", neg_pool[q:], verbal_negation, q)
+    for p in neg_pool[2 * q: 3 * q]:  # the negation as premise, the original as hypothesis
+        out.append((sentence_case(rng.choice(PREFIXES).format(lower_first(p))), p, "contradiction", "negation"))
+    for p in neg_pool[3 * q: 4 * q]:
+        v = verbal_negation(p)
+        if v:
+            out.append((sentence_case(v), p, "contradiction", "negation"))
+    for p in neg_pool[4 * q: 5 * q]:  # double negation and plain affirmation keep the polarity
+        v = verbal_negation(p)
+        h = rng.choice(PREFIXES).format(lower_first(v)) if v else "It is true that " + lower_first(p)
+        out.append((p, sentence_case(h), "entailment", "negation"))
+    for p in neg_pool[5 * q: 6 * q]:
+        out.append((p, sentence_case("It is true that " + lower_first(p)), "entailment", "negation"))
+
+    pool = premises[:]
+    rng.shuffle(pool)
+    take("cohyponym", "contradiction", pool, lambda p: substitutions(p, wordnet.cohyponyms, rng), quotas["cohyponym"])
+    rng.shuffle(pool)
+    take("antonym", "contradiction", pool, lambda p: substitutions(p, wordnet.antonyms, rng, nouns_only=False), quotas["antonym"])
+    rng.shuffle(pool)
+    take("hypernym", "entailment", pool, lambda p: substitutions(p, wordnet.hypernyms, rng), quotas["hypernym"])
+    rng.shuffle(pool)
+    take("number", "contradiction", pool, lambda p: swap_from(p, NUMBERS, rng), quotas["number"])
+    rng.shuffle(pool)
+    take("colour", "contradiction", pool, lambda p: swap_from(p, COLOURS, rng), quotas["colour"])
+
+    contradictions = [(p, h) for name in ("snli_test", "cad_train", "cad_test", "mnli_mismatched")
+                      for p, h, l in train[name] if l == "contradiction"]
+    rng.shuffle(contradictions)
+    out.extend((h, p, "contradiction", "swapped") for p, h in contradictions[: quotas["swapped"]])
+    return out

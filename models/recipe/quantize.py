@@ -1,0 +1,87 @@
+"""Dynamic int8 quantisation of the exported fp32 graph, written as a plain ONNX rewrite.
+
+- Every MatMul whose right operand is a constant [in, out] weight becomes
+  DynamicQuantizeLinear(x) -> MatMulInteger(x_q, W_q, x_zp, W_zp) -> Cast -> Mul(x_scale * W_scale).
+  Weights are uint8, asymmetric, one scale and zero point per output column (u8u8 avoids the int16
+  saturation some x86 int8 kernels have with u8s8; common practice).
+- The word-embedding Gather reads a uint8 table and dequantises only the gathered rows (one scale and
+  zero point per row), which keeps the 30,522 x 384 table at a quarter of its size.
+The same arithmetic is emulated in PyTorch (emulate.py) to produce the int8 model's reference logits.
+"""
+import numpy as np
+import onnx
+from onnx import TensorProto, helper, numpy_helper
+
+
+def quantize_columns(w):
+    """w [in, out] float32 -> (q uint8 [in, out], scale float32 [out], zero uint8 [out])."""
+    lo = np.minimum(w.min(axis=0), 0.0)
+    hi = np.maximum(w.max(axis=0), 0.0)
+    scale = ((hi - lo) / 255.0).astype(np.float32)
+    scale[scale == 0] = 1.0
+    zero = np.clip(np.round(-lo / scale), 0, 255).astype(np.uint8)
+    q = np.clip(np.round(w / scale) + zero, 0, 255).astype(np.uint8)
+    return q, scale, zero
+
+
+def quantize_rows(table):
+    q, scale, zero = quantize_columns(table.T)
+    return q.T.copy(), scale, zero
+
+
+def quantize(fp32_path, int8_path, embedding_name):
+    model = onnx.load(fp32_path)
+    graph = model.graph
+    inits = {i.name: i for i in graph.initializer}
+    nodes = []
+    new_inits = []
+    dropped = set()
+    for node in graph.node:
+        weight = inits.get(node.input[1]) if node.op_type == "MatMul" else None
+        if weight is not None and len(weight.dims) == 2:
+            w = numpy_helper.to_array(weight)
+            q, scale, zero = quantize_columns(w)
+            base = node.output[0]
+            new_inits += [numpy_helper.from_array(q, base + "_Wq"),
+                          numpy_helper.from_array(scale, base + "_Wscale"),
+                          numpy_helper.from_array(zero, base + "_Wzero")]
+            dropped.add(weight.name)
+            x = node.input[0]
+            nodes += [
+                helper.make_node("DynamicQuantizeLinear", [x], [base + "_xq", base + "_xscale", base + "_xzero"]),
+                helper.make_node("MatMulInteger", [base + "_xq", base + "_Wq", base + "_xzero", base + "_Wzero"],
+                                 [base + "_int"]),
+                helper.make_node("Cast", [base + "_int"], [base + "_float"], to=TensorProto.FLOAT),
+                helper.make_node("Mul", [base + "_xscale", base + "_Wscale"], [base + "_scale"]),
+                helper.make_node("Mul", [base + "_float", base + "_scale"], [base]),
+            ]
+            continue
+        if node.op_type == "Gather" and node.input[0] == embedding_name:
+            table = numpy_helper.to_array(inits[embedding_name])
+            q, scale, zero = quantize_rows(table)
+            base = node.output[0]
+            new_inits += [numpy_helper.from_array(q, embedding_name + "_q"),
+                          numpy_helper.from_array(scale, embedding_name + "_scale"),
+                          numpy_helper.from_array(zero.astype(np.float32), embedding_name + "_zero")]
+            dropped.add(embedding_name)
+            ids = node.input[1]
+            nodes += [
+                helper.make_node("Gather", [embedding_name + "_q", ids], [base + "_q"], axis=0),
+                helper.make_node("Cast", [base + "_q"], [base + "_qf"], to=TensorProto.FLOAT),
+                helper.make_node("Gather", [embedding_name + "_zero", ids], [base + "_z"], axis=0),
+                helper.make_node("Gather", [embedding_name + "_scale", ids], [base + "_s"], axis=0),
+                helper.make_node("Unsqueeze", [base + "_z", "_axis_last"], [base + "_z3"]),
+                helper.make_node("Unsqueeze", [base + "_s", "_axis_last"], [base + "_s3"]),
+                helper.make_node("Sub", [base + "_qf", base + "_z3"], [base + "_centred"]),
+                helper.make_node("Mul", [base + "_centred", base + "_s3"], [base]),
+            ]
+            new_inits.append(numpy_helper.from_array(np.array([-1], dtype=np.int64), "_axis_last"))
+            continue
+        nodes.append(node)
+    kept = [i for i in graph.initializer if i.name not in dropped]
+    del graph.node[:]
+    graph.node.extend(nodes)
+    del graph.initializer[:]
+    graph.initializer.extend(kept + new_inits)
+    onnx.checker.check_model(model)
+    onnx.save(model, int8_path)

@@ -1,0 +1,172 @@
+"""Fine-tune the MiniLM encoder as a 3-way NLI cross-encoder and export it to ONNX.
+
+Usage (see models/README.md for the whole recipe):
+  python3 train.py --data DATA_DIR --base BASE_DIR --out WORK_DIR [--epochs 2] [--seed 13] [--drop SOURCE ...]
+"""
+import argparse
+import collections
+import json
+import os
+import random
+import time
+
+import torch
+
+from augment import generate
+from bert import PairClassifier, load_base_weights
+from negation_eval import negation_pairs
+from nli_files import LABELS, evaluate_sources, train_sources
+from wordpiece import WordPiece
+
+QUOTAS = dict(negation=4200, cohyponym=5000, antonym=1500, hypernym=2000, number=1500, colour=1500, swapped=4000)
+
+
+def batches(encoded, batch_size, rng, bucket=100):
+    """Length-bucketed batches: shuffle, sort within chunks of `bucket` batches, shuffle the batches."""
+    order = list(range(len(encoded)))
+    rng.shuffle(order)
+    out = []
+    chunk = batch_size * bucket
+    for start in range(0, len(order), chunk):
+        part = sorted(order[start: start + chunk], key=lambda i: len(encoded[i][0]))
+        out.extend(part[i: i + batch_size] for i in range(0, len(part), batch_size))
+    rng.shuffle(out)
+    return out
+
+
+def collate(encoded, index):
+    width = max(len(encoded[i][0]) for i in index)
+    ids = torch.zeros((len(index), width), dtype=torch.long)
+    types = torch.zeros_like(ids)
+    mask = torch.zeros_like(ids)
+    for row, i in enumerate(index):
+        a, t = encoded[i][0], encoded[i][1]
+        ids[row, : len(a)] = torch.tensor(a)
+        types[row, : len(t)] = torch.tensor(t)
+        mask[row, : len(a)] = 1
+    labels = torch.tensor([encoded[i][2] for i in index])
+    return ids, mask, types, labels
+
+
+@torch.no_grad()
+def evaluate(model, tokenizer, pairs, max_len, batch_size=64):
+    model.eval()
+    encoded = [(*tokenizer.encode_pair(p, h, max_len), LABELS.index(l)) for p, h, l in pairs]
+    order = sorted(range(len(encoded)), key=lambda i: len(encoded[i][0]))
+    confusion = [[0] * 3 for _ in range(3)]
+    for start in range(0, len(order), batch_size):
+        index = order[start: start + batch_size]
+        ids, mask, types, labels = collate(encoded, index)
+        with torch.autocast("cpu", dtype=torch.bfloat16):
+            predicted = model(ids, mask, types).float().argmax(-1)
+        for gold, pred in zip(labels.tolist(), predicted.tolist()):
+            confusion[gold][pred] += 1
+    model.train()
+    total = sum(map(sum, confusion))
+    accuracy = sum(confusion[i][i] for i in range(3)) / max(total, 1)
+    contradiction_recall = confusion[2][2] / max(sum(confusion[2]), 1)
+    return accuracy, contradiction_recall
+
+
+def monitor_sets(data, seed):
+    rng = random.Random(seed)
+    ev = evaluate_sources(data)
+    return {
+        "mnli_matched": rng.sample(ev["mnli_matched"], 1000),
+        "snli_dev": rng.sample(ev["snli_dev"], 1000),
+        "breaking_nli": rng.sample(ev["breaking_nli"], 500),
+        "negation_held_out": negation_pairs([p for p, _, _ in ev["snli_dev"]], 300, seed),
+    }
+
+
+def main():
+    ap = argparse.ArgumentParser()
+    ap.add_argument("--data", required=True)
+    ap.add_argument("--base", required=True)
+    ap.add_argument("--out", required=True)
+    ap.add_argument("--epochs", type=int, default=2)
+    ap.add_argument("--batch", type=int, default=32)
+    ap.add_argument("--lr", type=float, default=5e-5)
+    ap.add_argument("--max-len", type=int, default=128)
+    ap.add_argument("--seed", type=int, default=13)
+    ap.add_argument("--drop", nargs="*", default=[], help="augmentation sources to leave out (ablation)")
+    ap.add_argument("--threads", type=int, default=2)
+    args = ap.parse_args()
+
+    torch.manual_seed(args.seed)
+    torch.set_num_threads(args.threads)
+    rng = random.Random(args.seed)
+    os.makedirs(args.out, exist_ok=True)
+    log = open(os.path.join(args.out, "train-log.jsonl"), "a", encoding="utf-8")
+
+    def note(**fields):
+        fields["time"] = round(time.time(), 1)
+        print(json.dumps(fields), flush=True)
+        log.write(json.dumps(fields) + "\n")
+        log.flush()
+
+    tokenizer = WordPiece(os.path.join(args.base, "vocab.txt"))
+    train = train_sources(args.data)
+    pairs = [(p, h, l, name) for name, rows in train.items() for p, h, l in rows]
+    quotas = {k: v for k, v in QUOTAS.items() if k not in args.drop}
+    generated = generate(train, args.seed, {k: quotas.get(k, 0) for k in QUOTAS})
+    pairs += [g for g in generated if g[3] in quotas]
+    counts = collections.Counter(name for *_, name in pairs)
+    note(event="data", counts=counts, total=len(pairs), drop=args.drop, seed=args.seed)
+    with open(os.path.join(args.out, "train-pairs.jsonl"), "w", encoding="utf-8") as f:
+        for p, h, l, name in pairs:
+            f.write(json.dumps({"premise": p, "hypothesis": h, "label": l, "source": name}) + "\n")
+
+    encoded = [(*tokenizer.encode_pair(p, h, args.max_len), LABELS.index(l)) for p, h, l, _ in pairs]
+    monitors = monitor_sets(args.data, args.seed)
+
+    model = load_base_weights(PairClassifier(), os.path.join(args.base, "model.onnx"))
+    model.train()
+    # The word-embedding table is frozen: it is most of the parameters, its update dominates a CPU step,
+    # and the augmentations rely on the pretrained relations between words.
+    model.word.weight.requires_grad_(False)
+    no_decay = ("bias", "norm")
+    groups = [
+        {"params": [p for n, p in model.named_parameters() if p.requires_grad and not any(k in n for k in no_decay)], "weight_decay": 0.01},
+        {"params": [p for n, p in model.named_parameters() if p.requires_grad and any(k in n for k in no_decay)], "weight_decay": 0.0},
+    ]
+    optimizer = torch.optim.AdamW(groups, lr=args.lr)
+    steps_per_epoch = (len(encoded) + args.batch - 1) // args.batch
+    total_steps = steps_per_epoch * args.epochs
+    warmup = int(0.06 * total_steps)
+    schedule = torch.optim.lr_scheduler.LambdaLR(
+        optimizer, lambda s: min((s + 1) / max(warmup, 1), max(0.0, (total_steps - s) / max(total_steps - warmup, 1))))
+    loss_fn = torch.nn.CrossEntropyLoss()
+
+    step = 0
+    started = time.time()
+    for epoch in range(1, args.epochs + 1):
+        running = 0.0
+        for index in batches(encoded, args.batch, rng):
+            ids, mask, types, labels = collate(encoded, index)
+            # bf16 autocast: the CPU's bf16 matrix units make a step several times faster than fp32;
+            # master weights and the optimiser stay fp32.
+            with torch.autocast("cpu", dtype=torch.bfloat16):
+                logits = model(ids, mask, types)
+            loss = loss_fn(logits.float(), labels)
+            optimizer.zero_grad()
+            loss.backward()
+            torch.nn.utils.clip_grad_norm_(model.parameters(), 1.0)
+            optimizer.step()
+            schedule.step()
+            step += 1
+            running += loss.item()
+            if step % 25 == 0:
+                note(event="step", epoch=epoch, step=step, of=total_steps, loss=round(running / 25, 4),
+                     lr=schedule.get_last_lr()[0], elapsed_s=round(time.time() - started))
+                running = 0.0
+        torch.save(model.state_dict(), os.path.join(args.out, f"epoch{epoch}.pt"))
+        scores = {name: evaluate(model, tokenizer, rows, args.max_len) for name, rows in monitors.items()}
+        note(event="epoch", epoch=epoch, **{k: {"accuracy": round(a, 4), "contradiction_recall": round(r, 4)}
+                                           for k, (a, r) in scores.items()})
+    torch.save(model.state_dict(), os.path.join(args.out, "final.pt"))
+    note(event="done", elapsed_s=round(time.time() - started))
+
+
+if __name__ == "__main__":
+    main()
