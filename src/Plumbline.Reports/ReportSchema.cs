@@ -1,0 +1,16 @@
+using Plumbline.Core.Runs;
+
+namespace Plumbline.Reports;
+
+/// <summary>Where the JSON Schema of the current report version lives, relative to the repository root.</summary>
+public static class ReportSchema
+{
+    public const int Version = RunReport.CurrentSchemaVersion;
+
+    public const string Folder = "schemas";
+
+    public static string FileName { get; } = $"plumbline-report-{Version}.schema.json";
+
+    /// <summary>The schema's <c>$id</c>; the reserved ".invalid" name keeps it from pointing anywhere real.</summary>
+    public static Uri Id { get; } = new($"https://plumbline.invalid/schemas/{FileName}");
+}
