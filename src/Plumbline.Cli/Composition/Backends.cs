@@ -1,0 +1,57 @@
+using Plumbline.Cli.Options;
+using Plumbline.Core.Language;
+using Plumbline.Core.MaxSat;
+using Plumbline.Models.Recording;
+using Plumbline.Nli;
+using Plumbline.Reports;
+using Plumbline.Solver;
+
+namespace Plumbline.Cli.Composition;
+
+/// <summary>
+/// The composition root: the one place that knows every adapter and picks the concrete model source,
+/// NLI scorer, solver, report writers and clock. Everything else sees only Core's ports.
+/// </summary>
+internal static class Backends
+{
+    public static TimeProvider Time => TimeProvider.System;
+
+    public static ReportWriterRegistry Reports => ReportWriterRegistry.Default;
+
+    public static IMaxSatSolver CreateSolver(TimeSpan? timeLimit = null) =>
+        new CpSatMaxSatSolver(CpSatOptions.Default with { TimeLimit = timeLimit }, Time);
+
+    /// <summary>Opens the language model a <c>--model</c> value names, reading and validating it fully now.</summary>
+    /// <exception cref="UsageException">The source's file does not exist.</exception>
+    /// <exception cref="RecordingFormatException">The recording has a malformed line.</exception>
+    public static async Task<ILanguageModel> OpenModelAsync(ModelSource source, string promptVersion, CancellationToken cancellationToken)
+    {
+        switch (source)
+        {
+            case RecordingModelSource recording:
+                if (!File.Exists(recording.Path))
+                {
+                    throw new UsageException($"{ModelSource.OptionName}: recording file '{recording.Path}' not found");
+                }
+
+                return await RecordingLanguageModel.LoadAsync(recording.Path, promptVersion, cancellationToken);
+            default:
+                throw new UsageException($"{ModelSource.OptionName}: {source} is not supported");
+        }
+    }
+
+    /// <summary>Loads the ONNX NLI model of a folder.</summary>
+    /// <exception cref="UsageException">The folder does not exist.</exception>
+    /// <exception cref="NliModelException">A model file is missing or unusable.</exception>
+    public static OnnxEntailmentScorer OpenScorer(string directory)
+    {
+        if (!Directory.Exists(directory))
+        {
+            throw new UsageException(directory == NliModelOption.ShippedDirectory
+                ? $"--nli-model: the shipped NLI model is missing from '{directory}'; pass --nli-model DIR"
+                : $"--nli-model: folder '{directory}' not found");
+        }
+
+        return OnnxEntailmentScorer.Load(directory);
+    }
+}

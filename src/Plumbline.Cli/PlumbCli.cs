@@ -1,0 +1,46 @@
+using System.CommandLine;
+using Plumbline.Cli.Commands;
+
+namespace Plumbline.Cli;
+
+/// <summary>The command tree and its invocation. Parse errors are usage errors: one line, exit code 2.</summary>
+internal static class PlumbCli
+{
+    public static RootCommand Build(CliContext context)
+    {
+        var root = new RootCommand("plumb: checks whether a language model's true/false answers hold together under its own explanations.");
+        root.Subcommands.Add(CheckCommand.Create(context));
+        root.Subcommands.Add(SweepCommand.Create(context));
+        root.Subcommands.Add(SolveCommand.Create(context));
+        root.Subcommands.Add(NliCommand.Create(context));
+        return root;
+    }
+
+    public static async Task<int> RunAsync(IReadOnlyList<string> args, CliContext context, CancellationToken cancellationToken)
+    {
+        var configuration = new InvocationConfiguration
+        {
+            Output = context.Output,
+            Error = context.Error,
+            // Commands catch what they can explain; the caller owns Ctrl+C so that a stopped run still reports.
+            EnableDefaultExceptionHandler = false,
+            ProcessTerminationTimeout = null,
+        };
+        if (args.Count == 0)
+        {
+            await Build(context).Parse(["--help"]).InvokeAsync(configuration, cancellationToken);
+            return ExitCodes.UsageError;
+        }
+
+        var parse = Build(context).Parse(args);
+        if (parse.Errors.Count > 0)
+        {
+            var command = parse.CommandResult.Command;
+            var help = command is RootCommand ? "plumb --help" : $"plumb {command.Name} --help";
+            await context.Error.WriteLineAsync(CliErrors.Line($"{string.Join("; ", parse.Errors.Select(e => e.Message))} (see {help})"));
+            return ExitCodes.UsageError;
+        }
+
+        return await parse.InvokeAsync(configuration, cancellationToken);
+    }
+}
