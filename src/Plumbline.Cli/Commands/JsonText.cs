@@ -20,15 +20,10 @@ internal static class JsonText
         return Encoding.UTF8.GetString(buffer.ToArray()) + "\n";
     }
 
-    public static void WriteNullable(this Utf8JsonWriter json, string name, long? value)
+    /// <summary>A property whose value may be null (numbers, strings): null is written as JSON null.</summary>
+    public static void WriteNullable<T>(this Utf8JsonWriter json, string name, T value)
     {
-        if (value is { } number)
-        {
-            json.WriteNumber(name, number);
-        }
-        else
-        {
-            json.WriteNull(name);
-        }
+        json.WritePropertyName(name);
+        JsonSerializer.Serialize(json, value);
     }
 }

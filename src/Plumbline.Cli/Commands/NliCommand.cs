@@ -6,10 +6,14 @@ using Plumbline.Cli.Options;
 using Plumbline.Cli.Running;
 using Plumbline.Core.Entailment;
 using Plumbline.Nli;
+using Plumbline.Nli.Evaluation;
 
 namespace Plumbline.Cli.Commands;
 
-/// <summary><c>plumb nli PREMISE HYPOTHESIS</c> scores one pair with the NLI model.</summary>
+/// <summary>
+/// <c>plumb nli PREMISE HYPOTHESIS</c> scores one pair with the NLI model; <c>plumb nli --eval FILE</c> measures
+/// the model on labelled pairs (CSV, TSV or JSON Lines).
+/// </summary>
 internal static class NliCommand
 {
     private static readonly string[] Formats = ["text", "json"];
@@ -18,25 +22,48 @@ internal static class NliCommand
     {
         var premise = new Argument<string?>("premise") { Description = "The premise sentence.", HelpName = "PREMISE", Arity = ArgumentArity.ZeroOrOne };
         var hypothesis = new Argument<string?>("hypothesis") { Description = "The hypothesis sentence.", HelpName = "HYPOTHESIS", Arity = ArgumentArity.ZeroOrOne };
+        var eval = new Option<string?>("--eval")
+        {
+            Description = "Evaluate the model on labelled pairs: .csv, .tsv or .jsonl with premise, hypothesis and label fields.",
+            HelpName = "FILE",
+        };
         var nliModel = NliModelOption.Create();
         var output = new OutputOptions(Formats);
-        var command = new Command("nli", "Score a premise/hypothesis pair with the NLI model.");
+        var command = new Command("nli", "Score a premise/hypothesis pair with the NLI model, or evaluate it on labelled pairs.");
         command.Arguments.Add(premise);
         command.Arguments.Add(hypothesis);
+        command.Options.Add(eval);
         command.Options.Add(nliModel);
         output.AddTo(command);
         command.SetAction((parse, cancellationToken) => Guarded.RunAsync(context, async () =>
         {
-            var (p, h) = (parse.GetValue(premise), parse.GetValue(hypothesis));
-            if (string.IsNullOrWhiteSpace(p) || string.IsNullOrWhiteSpace(h))
+            var (p, h, evalFile) = (parse.GetValue(premise), parse.GetValue(hypothesis), parse.GetValue(eval));
+            var settings = output.Read(parse);
+            string text;
+            if (evalFile is not null)
             {
-                throw new UsageException("nli: give a premise and a hypothesis, both non-empty");
+                if (p is not null || h is not null)
+                {
+                    throw new UsageException("nli: give either a premise and a hypothesis, or --eval FILE, not both");
+                }
+
+                var pairs = ReadPairs(evalFile);
+                using var scorer = Backends.OpenScorer(NliModelOption.Read(parse, nliModel));
+                var evaluation = await NliEvaluator.EvaluateAsync(scorer, pairs.Pairs, Backends.Time, cancellationToken);
+                text = settings.Format == "json" ? NliEvaluationOutput.Json(pairs, evaluation) : NliEvaluationOutput.Text(pairs, evaluation);
+            }
+            else
+            {
+                if (string.IsNullOrWhiteSpace(p) || string.IsNullOrWhiteSpace(h))
+                {
+                    throw new UsageException("nli: give a premise and a hypothesis, both non-empty (or --eval FILE)");
+                }
+
+                using var scorer = Backends.OpenScorer(NliModelOption.Read(parse, nliModel));
+                var result = (await scorer.ScoreWithDetailsAsync([new SentencePair(p, h)], cancellationToken))[0];
+                text = settings.Format == "json" ? PairJson(p, h, result) : PairText(p, h, result);
             }
 
-            var settings = output.Read(parse);
-            using var scorer = Backends.OpenScorer(NliModelOption.Read(parse, nliModel));
-            var result = (await scorer.ScoreWithDetailsAsync([new SentencePair(p, h)], cancellationToken))[0];
-            var text = settings.Format == "json" ? PairJson(p, h, result) : PairText(p, h, result);
             await ResultDestination.WriteTextAsync(settings.Path, context.Output, text, cancellationToken);
             return ExitCodes.Success;
         }, cancellationToken));
@@ -44,6 +71,21 @@ internal static class NliCommand
     }
 
     internal static string LabelOf(EntailmentKind kind) => kind.ToString().ToLowerInvariant();
+
+    /// <exception cref="UsageException">The file is missing or holds no labelled pair.</exception>
+    /// <exception cref="LabelledPairFormatException">A row is malformed.</exception>
+    private static LabelledPairSet ReadPairs(string path)
+    {
+        if (!File.Exists(path))
+        {
+            throw new UsageException($"--eval: {path}: file not found");
+        }
+
+        var pairs = LabelledPairReader.Read(path);
+        return pairs.Pairs.Count > 0
+            ? pairs
+            : throw new UsageException($"--eval: {path}: no labelled pair ({pairs.SkippedUnlabelled} unlabelled row(s) skipped)");
+    }
 
     private static string PairText(string premise, string hypothesis, NliPairResult result)
     {

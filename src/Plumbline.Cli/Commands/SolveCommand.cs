@@ -92,13 +92,6 @@ internal static class SolveCommand
         json.WriteNumber("hard_clauses", summary.HardClauses);
         json.WriteNumber("soft_clauses", summary.SoftClauses);
         json.WriteNumber("seconds", Math.Round(summary.WallTime.TotalSeconds, 6));
-        if (summary.Message is null)
-        {
-            json.WriteNull("message");
-        }
-        else
-        {
-            json.WriteString("message", summary.Message);
-        }
+        json.WriteNullable("message", summary.Message);
     });
 }

@@ -56,4 +56,99 @@ public sealed class NliCommandTests
         Assert.Equal(2, result.ExitCode);
         Assert.StartsWith("plumb: " + folder.Path, Assert.Single(result.ErrorLines));
     }
+
+    private static string EvalFile(TempDirectory folder)
+    {
+        var longPremise = string.Join(' ', Enumerable.Repeat("the kettle is made of steel and glass", 60));
+        string Row(string premise, string hypothesis, string label) =>
+            JsonSerializer.Serialize(new Dictionary<string, string> { ["premise"] = premise, ["hypothesis"] = hypothesis, ["label"] = label });
+        return folder.Write("pairs.jsonl", string.Join('\n',
+            Row("A man is playing a guitar on stage.", "A man is playing an instrument.", "entailment"),
+            Row("Two dogs run through a field.", "Animals are outside.", "entailment"),
+            Row("A woman is reading a book.", "The woman is reading a novel by her favourite author.", "neutral"),
+            Row(longPremise, "The kettle was bought last year.", "neutral"),
+            Row("A child is sleeping in bed.", "The child is running in the park.", "contradiction"),
+            Row("The shop is closed on Sundays.", "The shop is open on Sundays.", "contradiction"),
+            Row("A cat sits on the mat.", "A cat is on the mat.", "-")));
+    }
+
+    [Fact]
+    public async Task NliEval_LabelledPairs_ReportsConsistentCountsAccuracyAndTruncation()
+    {
+        using var folder = new TempDirectory();
+        var file = EvalFile(folder);
+
+        var result = await Plumb.RunAsync("nli", "--eval", file, "--format", "json");
+
+        Assert.True(result.ExitCode == 0, result.ToString());
+        using var json = JsonDocument.Parse(result.Output);
+        var root = json.RootElement;
+        Assert.Equal(6, root.GetProperty("pairs").GetInt32());
+        Assert.Equal(1, root.GetProperty("skipped_unlabelled").GetInt32());
+        Assert.Equal(1, root.GetProperty("truncated").GetInt32());
+        var labels = new[] { "entailment", "neutral", "contradiction" };
+        var confusion = root.GetProperty("confusion");
+        int Cell(string gold, string predicted) => confusion.GetProperty(gold).GetProperty(predicted).GetInt32();
+        // Two pairs of each gold class in the file.
+        Assert.All(labels, gold => Assert.Equal(2, labels.Sum(predicted => Cell(gold, predicted))));
+        var correct = labels.Sum(label => Cell(label, label));
+        Assert.Equal(correct, root.GetProperty("correct").GetInt32());
+        Assert.Equal(correct / 6.0, root.GetProperty("accuracy").GetDouble(), 9);
+        Assert.True(root.GetProperty("pairs_per_second").GetDouble() > 0);
+        foreach (var metrics in root.GetProperty("classes").EnumerateArray())
+        {
+            var label = metrics.GetProperty("label").GetString()!;
+            var predicted = labels.Sum(gold => Cell(gold, label));
+            Assert.Equal(predicted, metrics.GetProperty("predicted").GetInt32());
+            Assert.Equal(2, metrics.GetProperty("gold").GetInt32());
+            Assert.Equal(Cell(label, label) / 2.0, metrics.GetProperty("recall").GetDouble(), 9);
+            if (predicted > 0)
+            {
+                Assert.Equal((double)Cell(label, label) / predicted, metrics.GetProperty("precision").GetDouble(), 9);
+            }
+            else
+            {
+                Assert.Equal(JsonValueKind.Null, metrics.GetProperty("precision").ValueKind);
+            }
+        }
+    }
+
+    [Fact]
+    public async Task NliEval_TextFormat_ShowsAccuracyClassesConfusionSpeedAndTruncation()
+    {
+        using var folder = new TempDirectory();
+        var file = EvalFile(folder);
+
+        var result = await Plumb.RunAsync("nli", "--eval", file);
+
+        Assert.True(result.ExitCode == 0, result.ToString());
+        Assert.Contains("pairs      6 (1 unlabelled skipped, 1 truncated to the model's maximum length)", result.Output);
+        Assert.Matches(@"accuracy   [01]\.\d{4} \(\d/6\)", result.Output);
+        Assert.Contains("confusion (rows: gold, columns: predicted)", result.Output);
+        Assert.Matches(@"speed      \d+\.\d pairs/s", result.Output);
+    }
+
+    [Fact]
+    public async Task NliEval_MalformedRow_ExitsTwoNamingFileLineAndField()
+    {
+        using var folder = new TempDirectory();
+        var file = folder.Write("pairs.jsonl", "{\"premise\": \"a\", \"hypothesis\": \"b\", \"label\": \"entailment\"}\n{\"premise\": \"a\", \"hypothesis\": \"b\", \"label\": \"maybe\"}\n");
+
+        var result = await Plumb.RunAsync("nli", "--eval", file);
+
+        Assert.Equal(2, result.ExitCode);
+        Assert.StartsWith($"plumb: {file}:2: label: ", Assert.Single(result.ErrorLines));
+    }
+
+    [Fact]
+    public async Task NliEval_WithAPairToo_ExitsTwo()
+    {
+        using var folder = new TempDirectory();
+        var file = EvalFile(folder);
+
+        var result = await Plumb.RunAsync("nli", "a", "b", "--eval", file);
+
+        Assert.Equal(2, result.ExitCode);
+        Assert.Equal("plumb: nli: give either a premise and a hypothesis, or --eval FILE, not both", Assert.Single(result.ErrorLines));
+    }
 }
