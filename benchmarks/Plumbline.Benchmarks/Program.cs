@@ -6,6 +6,7 @@ var options = args.Skip(1).ToArray();
 return name switch
 {
     "engine" => await EngineOverhead.RunAsync(options, Console.Out, Console.Error),
+    "nli" => await NliBenchmark.RunAsync(options, Console.Out, Console.Error),
     _ => Usage(name),
 };
 
@@ -18,5 +19,6 @@ static int Usage(string name)
 
     Console.Error.WriteLine("usage: Plumbline.Benchmarks <benchmark> [options]");
     Console.Error.WriteLine("  engine [--runs N] [--warmup N] [--workers N]   engine overhead per full-size tree (instant model and NLI, CP-SAT)");
+    Console.Error.WriteLine("  nli [--model DIR] [--pairs N] [--batch N] [--runs N]   NLI scorer pairs/s against session.Run alone; cold start");
     return 2;
 }

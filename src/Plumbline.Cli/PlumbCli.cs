@@ -8,7 +8,10 @@ internal static class PlumbCli
 {
     public static RootCommand Build(CliContext context)
     {
-        var root = new RootCommand("plumb: checks whether a language model's true/false answers hold together under its own explanations.");
+        var root = new RootCommand(
+            "plumb: checks whether a language model's true/false answers hold together under its own explanations.\n" +
+            "Exit codes: 0 everything judged; 1 a gate failed (solve: no solution); 2 usage or configuration error; " +
+            "3 run incomplete (failed claims, interrupted; solve: optimum not proven).");
         root.Subcommands.Add(CheckCommand.Create(context));
         root.Subcommands.Add(SweepCommand.Create(context));
         root.Subcommands.Add(SolveCommand.Create(context));

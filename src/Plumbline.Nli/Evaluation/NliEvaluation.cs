@@ -1,0 +1,21 @@
+namespace Plumbline.Nli.Evaluation;
+
+/// <summary>How a scorer did on a labelled set: accuracy, per-class precision and recall, confusion matrix, speed.</summary>
+/// <param name="Model">The scorer's description (model name and hash).</param>
+/// <param name="Elapsed">Wall-clock time spent scoring.</param>
+/// <param name="TruncatedPairs">Pairs cut to the model's maximum length (0 when the scorer cannot tell).</param>
+public sealed record NliEvaluation(string Model, NliConfusionMatrix Confusion, TimeSpan Elapsed, int TruncatedPairs)
+{
+    public int Pairs => Confusion.Total;
+
+    public int Correct => Confusion.Correct;
+
+    public double Accuracy => Pairs == 0 ? 0 : (double)Correct / Pairs;
+
+    public double PairsPerSecond => Elapsed > TimeSpan.Zero ? Pairs / Elapsed.TotalSeconds : 0;
+
+    public IReadOnlyList<NliClassMetrics> Classes =>
+        NliConfusionMatrix.Kinds
+            .Select(kind => new NliClassMetrics(kind, Confusion.GoldCount(kind), Confusion.PredictedCount(kind), Confusion[kind, kind]))
+            .ToArray();
+}

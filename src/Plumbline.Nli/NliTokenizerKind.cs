@@ -1,0 +1,10 @@
+namespace Plumbline.Nli;
+
+public enum NliTokenizerKind
+{
+    /// <summary>BERT-style WordPiece from vocab.txt: [CLS] premise [SEP] hypothesis [SEP].</summary>
+    WordPiece,
+
+    /// <summary>Byte-level BPE from vocab.json and merges.txt (RoBERTa-style &lt;s&gt; a &lt;/s&gt;&lt;/s&gt; b &lt;/s&gt;, or [CLS]/[SEP] when the vocabulary has those).</summary>
+    ByteLevelBpe,
+}

@@ -1,0 +1,138 @@
+using System.Collections.Concurrent;
+using Plumbline.Core.Entailment;
+using Plumbline.Nli.Tokenization;
+
+namespace Plumbline.Nli;
+
+/// <summary>
+/// Scores sentence pairs with an ONNX cross-encoder. Pairs are tokenised, sorted by length, run in batches padded
+/// to their longest pair and returned in input order. Safe to call from several threads at once.
+/// </summary>
+public sealed class OnnxEntailmentScorer : IEntailmentScorer, IDisposable
+{
+    private readonly NliModel model;
+    private readonly bool ownsModel;
+    private readonly int batchSize;
+    private readonly ConcurrentDictionary<SentencePair, ScoredPair>? cache;
+    private int truncatedPairs;
+    private long cacheHits;
+
+    /// <summary>Scores with a model the caller keeps and disposes.</summary>
+    public OnnxEntailmentScorer(NliModel model, NliScorerOptions? options = null)
+        : this(model, options ?? new NliScorerOptions(), ownsModel: false)
+    {
+    }
+
+    private OnnxEntailmentScorer(NliModel model, NliScorerOptions options, bool ownsModel)
+    {
+        ArgumentOutOfRangeException.ThrowIfLessThan(options.BatchSize, 1, nameof(options));
+        this.model = model;
+        this.ownsModel = ownsModel;
+        batchSize = options.BatchSize;
+        cache = options.Cache ? new ConcurrentDictionary<SentencePair, ScoredPair>() : null;
+    }
+
+    public NliModel Model => model;
+
+    public string Describe => model.Describe;
+
+    /// <summary>Distinct pairs scored so far that were cut to the model's maximum length (each counted once while cached).</summary>
+    public int TruncatedPairs => Volatile.Read(ref truncatedPairs);
+
+    /// <summary>Pairs answered from the cache instead of the model.</summary>
+    public long CacheHits => Interlocked.Read(ref cacheHits);
+
+    /// <summary>Loads a model directory and scores with it; disposing the scorer disposes the model.</summary>
+    public static OnnxEntailmentScorer Load(string directory, NliScorerOptions? options = null, NliModelOptions? modelOptions = null) =>
+        new(NliModel.Load(directory, modelOptions), options ?? new NliScorerOptions(), ownsModel: true);
+
+    public async Task<IReadOnlyList<EntailmentScores>> ScoreAsync(IReadOnlyList<SentencePair> pairs, CancellationToken cancellationToken)
+    {
+        var scored = await ScorePairsAsync(pairs, cancellationToken);
+        return scored.Select(pair => pair.Scores).ToArray();
+    }
+
+    /// <summary>As <see cref="ScoreAsync"/>, with each pair's truncation flag.</summary>
+    public async Task<IReadOnlyList<NliPairResult>> ScoreWithDetailsAsync(IReadOnlyList<SentencePair> pairs, CancellationToken cancellationToken)
+    {
+        var scored = await ScorePairsAsync(pairs, cancellationToken);
+        return scored.Select(pair => new NliPairResult(pair.Scores, pair.Truncated)).ToArray();
+    }
+
+    internal Task<ScoredPair[]> ScorePairsAsync(IReadOnlyList<SentencePair> pairs, CancellationToken cancellationToken) =>
+        pairs.Count == 0 ? Task.FromResult(Array.Empty<ScoredPair>()) : Task.Run(() => Score(pairs, cancellationToken), cancellationToken);
+
+    public void Dispose()
+    {
+        if (ownsModel)
+        {
+            model.Dispose();
+        }
+    }
+
+    private ScoredPair[] Score(IReadOnlyList<SentencePair> pairs, CancellationToken cancellationToken)
+    {
+        var results = new ScoredPair[pairs.Count];
+
+        // Each distinct pair is run once per call, even with the cache off; repeats share its result.
+        var waiting = new Dictionary<SentencePair, List<int>>();
+        for (var i = 0; i < pairs.Count; i++)
+        {
+            if (cache is not null && cache.TryGetValue(pairs[i], out var known))
+            {
+                results[i] = known;
+                Interlocked.Increment(ref cacheHits);
+            }
+            else if (waiting.TryGetValue(pairs[i], out var positions))
+            {
+                positions.Add(i);
+            }
+            else
+            {
+                waiting.Add(pairs[i], [i]);
+            }
+        }
+
+        var distinct = waiting.Keys.ToArray();
+        var encoded = distinct.Select(model.Encode).ToArray();
+        foreach (var batch in LengthBuckets.Plan(encoded, batchSize))
+        {
+            cancellationToken.ThrowIfCancellationRequested();
+            var logits = RunBatch(batch.Select(index => encoded[index]).ToArray());
+            for (var row = 0; row < batch.Length; row++)
+            {
+                var index = batch[row];
+                var scored = Remember(distinct[index], logits.AsSpan(row * model.LabelCount, model.LabelCount).ToArray(), encoded[index].Truncated);
+                foreach (var position in waiting[distinct[index]])
+                {
+                    results[position] = scored;
+                }
+            }
+        }
+
+        return results;
+    }
+
+    private float[] RunBatch(EncodedPair[] batch)
+    {
+        using var tensors = model.CreateBatch(batch);
+        return model.Run(tensors);
+    }
+
+    // When two calls score the same new pair at once, the first stored result wins so every caller sees identical values.
+    private ScoredPair Remember(SentencePair pair, float[] logits, bool truncated)
+    {
+        var scored = new ScoredPair(model.Labels.ToScores(logits), truncated, logits);
+        if (cache is not null && !cache.TryAdd(pair, scored))
+        {
+            return cache[pair];
+        }
+
+        if (truncated)
+        {
+            Interlocked.Increment(ref truncatedPairs);
+        }
+
+        return scored;
+    }
+}

@@ -1,0 +1,26 @@
+namespace Plumbline.Nli.Tokenization;
+
+/// <summary>BERT-style pairs over vocab.txt: [CLS] premise [SEP] hypothesis [SEP], segment ids 0 then 1.</summary>
+internal sealed class WordPiecePairEncoder : IPairEncoder
+{
+    private readonly WordPieceTokenizer tokenizer;
+    private readonly PairLayout layout;
+    private readonly int maxLength;
+
+    private WordPiecePairEncoder(WordPieceTokenizer tokenizer, int maxLength)
+    {
+        this.tokenizer = tokenizer;
+        this.maxLength = maxLength;
+        var vocabulary = tokenizer.Vocabulary;
+        layout = new PairLayout(vocabulary.Classification, vocabulary.Separator, DoubleSeparator: false, SecondSegmentHasOwnType: true);
+        PaddingId = vocabulary.Padding;
+    }
+
+    public long PaddingId { get; }
+
+    public static WordPiecePairEncoder Create(string vocabularyFile, bool lowerCase, int maxLength) =>
+        new(new WordPieceTokenizer(WordPieceVocabulary.Load(vocabularyFile), lowerCase), maxLength);
+
+    public EncodedPair Encode(string premise, string hypothesis) =>
+        layout.Frame(tokenizer.Encode(premise), tokenizer.Encode(hypothesis), maxLength);
+}
