@@ -6,7 +6,7 @@ var options = args.Skip(1).ToArray();
 return name switch
 {
     "engine" => await EngineOverhead.RunAsync(options, Console.Out, Console.Error),
-    "nli" => await NliBenchmark.RunAsync(options, Console.Out, Console.Error),
+    "nli" => await Plumbline.Benchmarks.NliBenchmark.RunAsync(options, Console.Out, Console.Error),
     _ => Usage(name),
 };
 
