@@ -23,7 +23,9 @@ public sealed record CpSatOptions(int Workers = 2, TimeSpan? TimeLimit = null)
 
     internal string ToParameterString()
     {
-        var text = $"num_workers:{Workers}";
+        // CP-SAT would otherwise install its own SIGINT handler during a solve and leave the default one behind,
+        // so a later Ctrl+C killed the host process before it could write the verdicts it had finished.
+        var text = $"num_workers:{Workers} catch_sigint_signal:false";
         if (Workers >= 2)
         {
             // A MAX-SAT objective is a weighted sum of violation indicators, where core-guided search proves optima

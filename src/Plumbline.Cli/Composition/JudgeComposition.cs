@@ -26,7 +26,7 @@ internal static class JudgeComposition
         var export = settings.ExportWcnfDirectory is { } folder ? WcnfExport.Open(folder) : null;
         var model = await Backends.OpenModelAsync(settings.Model, settings.Engine.PromptVersion, cancellationToken);
         using var scorer = Backends.OpenScorer(settings.NliModelDirectory);
-        var solver = Backends.CreateSolver();
+        var solver = Backends.CreateClaimSolver();
         var engine = new CoherenceEngine(model, scorer, solver, settings.Engine, Backends.Time);
         var runSettings = RunSettings.From(settings.Engine, model.Describe, scorer.Describe, solver.Describe, seed: null);
 
