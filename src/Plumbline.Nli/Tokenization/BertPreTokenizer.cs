@@ -38,11 +38,11 @@ internal static class BertPreTokenizer
             }
             else if (IsCjkIdeograph(rune.Value))
             {
-                cleaned.Append(' ').Append(rune).Append(' ');
+                cleaned.Append(' ').AppendRune(rune).Append(' ');
             }
             else
             {
-                cleaned.Append(rune);
+                cleaned.AppendRune(rune);
             }
         }
 

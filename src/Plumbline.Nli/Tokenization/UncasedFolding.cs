@@ -43,7 +43,7 @@ internal static class UncasedFolding
             }
             else
             {
-                folded.Append(rune);
+                folded.AppendRune(rune);
             }
 
             i += rune.Utf16SequenceLength;
@@ -102,7 +102,7 @@ internal static class UncasedFolding
             var folded = new StringBuilder();
             foreach (var codePoint in line[(tab + 1)..].Split(' ', StringSplitOptions.RemoveEmptyEntries))
             {
-                folded.Append(new Rune(int.Parse(codePoint, NumberStyles.HexNumber, CultureInfo.InvariantCulture)));
+                folded.AppendRune(new Rune(int.Parse(codePoint, NumberStyles.HexNumber, CultureInfo.InvariantCulture)));
             }
 
             table[int.Parse(line.AsSpan(0, tab), NumberStyles.HexNumber, CultureInfo.InvariantCulture)] = folded.ToString();
