@@ -254,3 +254,67 @@ def generate(train, seed, quotas):
     rng.shuffle(contradictions)
     out.extend((h, p, "contradiction", "swapped") for p, h in contradictions[: quotas["swapped"]])
     return out
+
+
+def adjective_positions(words, wordnet):
+    """Words read as adjectives: listed as adjectives in WordNet, not mostly nouns, right before another word."""
+    out = []
+    for i, w in enumerate(words[:-1]):
+        core = w.lower()
+        if (i > 0 and core.isalpha() and len(core) > 2 and core not in STOP
+                and wordnet.first_sense(core, "a") and not wordnet.mostly_noun(core)
+                and words[i + 1].isalpha()):
+            out.append(i)
+    return out
+
+
+def without_adjective(sentence, wordnet, rng):
+    words = sentence.split(" ")
+    spots = adjective_positions(words, wordnet)
+    if not spots:
+        return None
+    i = rng.choice(spots)
+    return " ".join(fix_articles(words[:i] + words[i + 1:]))
+
+
+def synonyms(wordnet, word):
+    out = []
+    if word.endswith(("ing", "ed")):
+        return out
+    for pos in (("n", "a") if wordnet.mostly_noun(word) else ("a",)):
+        key = wordnet.first_sense(word, pos)
+        if key:
+            out += [l for l in wordnet.synsets[key][0] if l.isalpha() and l != word]
+    return out
+
+
+def generate_refinement(train, seed, quotas):
+    """Pairs that teach that small edits which keep the meaning are not contradictions: an adjective
+    dropped from the premise (entailment), the same adjective added (neutral), a WordNet synonym
+    (entailment) and the sentence itself (entailment)."""
+    rng = random.Random(seed + 1)
+    wordnet = WordNet()
+    premises = sorted({p for name in ("snli_test", "cad_train", "cad_test", "mnli_mismatched") for p, _, _ in train[name]
+                       if 4 <= len(p.split()) <= 30})
+    rng.shuffle(premises)
+    out = []
+    for p in premises:
+        if sum(1 for o in out if o[3] == "deletion") >= quotas["deletion"] + quotas["insertion"]:
+            break
+        h = without_adjective(p, wordnet, rng)
+        if h and h != p:
+            out.append((p, h, "entailment", "deletion"))
+    deletions = [o for o in out if o[3] == "deletion"]
+    out = deletions[: quotas["deletion"]]
+    out += [(h, p, "neutral", "insertion") for p, h, _, _ in deletions[quotas["deletion"]:]]
+    rng.shuffle(premises)
+    made = 0
+    for p in premises:
+        if made >= quotas["synonym"]:
+            break
+        h = substitutions(p, lambda w: synonyms(wordnet, w), rng, nouns_only=False)
+        if h and h != p:
+            out.append((p, h, "entailment", "synonym"))
+            made += 1
+    out += [(p, p, "entailment", "identity") for p in premises[: quotas["identity"]]]
+    return out
