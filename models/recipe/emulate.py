@@ -20,8 +20,9 @@ def dynamic_quantize(x):
 
 
 class EmulatedLinear(nn.Module):
-    def __init__(self, linear):
+    def __init__(self, linear, weights_only=True):
         super().__init__()
+        self.weights_only = weights_only
         w = linear.weight.detach().numpy().T.astype(np.float32)  # [in, out] as exported
         q, scale, zero = quantize_columns(w)
         self.register_buffer("wq", torch.from_numpy(q.astype(np.float64) - zero.astype(np.float64)))
@@ -29,18 +30,22 @@ class EmulatedLinear(nn.Module):
         self.register_buffer("bias", linear.bias.detach().clone())
 
     def forward(self, x):
+        if self.weights_only:
+            # DequantizeLinear then an fp32 MatMul, as in the shipped graph.
+            w = (self.wq.float() * self.wscale).float()
+            return x @ w + self.bias
         q, scale, zero = dynamic_quantize(x)
         acc = ((q.double() - zero.double()) @ self.wq).float()
         return acc * (scale * self.wscale) + self.bias
 
 
-def emulate_int8(model):
+def emulate_int8(model, weights_only=True):
     """Return a copy of the fp32 PairClassifier whose encoder Linears and word embedding act as in the int8 graph."""
     import copy
     m = copy.deepcopy(model).eval()
     for layer in m.layers:
         for name in ("query", "key", "value", "attn_out", "ffn_in", "ffn_out"):
-            setattr(layer, name, EmulatedLinear(getattr(layer, name)))
+            setattr(layer, name, EmulatedLinear(getattr(layer, name), weights_only))
     table = m.word.weight.detach().numpy()
     q, scale, zero = quantize_rows(table)
     deq = (q.astype(np.float32) - zero.astype(np.float32)[:, None]) * scale[:, None]

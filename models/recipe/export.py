@@ -92,7 +92,7 @@ def main():
         "labels": LABELS,
         "inputs": ["input_ids", "attention_mask", "token_type_ids"],
         "output": "logits",
-        "quantization": "dynamic int8 (MatMulInteger u8u8, per-column weights; uint8 word embeddings per row)",
+        "quantization": "int8 weights (uint8, per output column, dequantised before fp32 MatMul); uint8 word embeddings per row; fp32 activations",
     }
     with open(os.path.join(args.out, "nli-model.json"), "w", encoding="utf-8") as f:
         json.dump(card, f, indent=2)

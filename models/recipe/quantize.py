@@ -1,5 +1,13 @@
-"""Dynamic int8 quantisation of the exported fp32 graph, written as a plain ONNX rewrite.
+"""Int8 quantisation of the exported fp32 graph, written as a plain ONNX rewrite.
 
+Two forms. The shipped one is "weights": every constant MatMul weight is stored as uint8 with one scale
+and zero point per output column and dequantised (DequantizeLinear) in front of an ordinary fp32 MatMul.
+Activations stay fp32, so a pair's scores never depend on the other pairs or the padding in its batch.
+The "dynamic" form quantises activations too and is faster on int8 hardware, but DynamicQuantizeLinear
+takes one scale over the whole batch tensor: scores then shift with the batch companions (measured
+up to 0.48 in a logit), which a scorer that batches and caches cannot accept.
+
+Dynamic form:
 - Every MatMul whose right operand is a constant [in, out] weight becomes
   DynamicQuantizeLinear(x) -> MatMulInteger(x_q, W_q, x_zp, W_zp) -> Cast -> Mul(x_scale * W_scale).
   Weights are uint8, asymmetric, one scale and zero point per output column (u8u8 avoids the int16
@@ -29,7 +37,7 @@ def quantize_rows(table):
     return q.T.copy(), scale, zero
 
 
-def quantize(fp32_path, int8_path, embedding_name):
+def quantize(fp32_path, int8_path, embedding_name, mode="weights"):
     model = onnx.load(fp32_path)
     graph = model.graph
     inits = {i.name: i for i in graph.initializer}
@@ -47,6 +55,13 @@ def quantize(fp32_path, int8_path, embedding_name):
                           numpy_helper.from_array(zero, base + "_Wzero")]
             dropped.add(weight.name)
             x = node.input[0]
+            if mode == "weights":
+                nodes += [
+                    helper.make_node("DequantizeLinear", [base + "_Wq", base + "_Wscale", base + "_Wzero"],
+                                     [base + "_W"], axis=1),
+                    helper.make_node("MatMul", [x, base + "_W"], [base]),
+                ]
+                continue
             nodes += [
                 helper.make_node("DynamicQuantizeLinear", [x], [base + "_xq", base + "_xscale", base + "_xzero"]),
                 helper.make_node("MatMulInteger", [base + "_xq", base + "_Wq", base + "_xzero", base + "_Wzero"],

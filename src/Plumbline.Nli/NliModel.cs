@@ -132,6 +132,11 @@ public sealed class NliModel : IDisposable
             InterOpNumThreads = 1,
             ExecutionMode = ExecutionMode.ORT_SEQUENTIAL,
         };
+
+        // The shipped model stores int8 weights behind DequantizeLinear. Left alone, the optimiser rewrites
+        // that into int8 kernels that also quantise the activations, so scores drift from the model's own
+        // reference logits; without the QDQ rewrite the weights are dequantised once at load instead.
+        sessionOptions.AddSessionConfigEntry("session.disable_quant_qdq", "1");
         try
         {
             return new InferenceSession(bytes, sessionOptions);
