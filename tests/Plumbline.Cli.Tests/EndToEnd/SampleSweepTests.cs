@@ -20,13 +20,13 @@ public sealed class SampleSweepTests(SampleSweep sweep) : IClassFixture<SampleSw
     {
         { "kettle-warranty", true, true, "settled", 0.7 },        // recording line 2: p_true 0.9
         { "toaster-slots", false, false, "settled", 3.0 },        // line 14: 0.25
-        { "blender-jug", true, false, "overturned", 1.0 },        // line 32: 0.6
+        { "blender-jug", true, false, "overturned", 1.55 },       // line 32: 0.6
         { "grinder-burrs", true, true, "contested", 0.0 },        // line 52: 0.55
-        { "helpline-sundays", false, true, "overturned", 0.4 },   // line 80: 0.45; the NLI model reads "closed" as entailing "open"
+        { "helpline-sundays", false, true, "overturned", 0.7 },   // line 80: 0.45; the NLI model reads "closed" as entailing "open"
         { "blender-online", true, false, "overturned", 1.05 },    // line 92: 0.6
         { "returns-window", true, true, "settled", 1.6 },         // line 107: 0.8
         { "spare-parts", false, false, "settled", 1.0 },          // line 125: 0.4
-        { "warranty-repairs", false, false, "settled", 1.85 },    // line 148: 0.2
+        { "warranty-repairs", false, false, "settled", 1.65 },    // line 148: 0.2
         { "return-receipt", true, true, "contested", 0.0 },       // line 166: 0.7
         { "head-office", true, true, "settled", 0.85 },           // line 178: 0.9
         { "toaster-warranty", true, false, "overturned", 1.0 },   // line 193: 0.7
