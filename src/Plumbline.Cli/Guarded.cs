@@ -1,8 +1,5 @@
-using Plumbline.Cli.Input;
-using Plumbline.Models.Recording;
+using Plumbline.Core.Inputs;
 using Plumbline.Nli;
-using Plumbline.Nli.Evaluation;
-using Plumbline.Solver.Wcnf;
 
 namespace Plumbline.Cli;
 
@@ -39,8 +36,7 @@ internal static class Guarded
     /// <summary>The message for an error the user can fix, or null for anything else.</summary>
     internal static string? UsageMessage(Exception e) => e switch
     {
-        UsageException or ClaimFileException or RecordingFormatException or WcnfFormatException or NliModelException
-            or LabelledPairFormatException => e.Message,
+        UsageException or InputFormatException or NliModelException => e.Message,
         FileNotFoundException notFound => $"{notFound.FileName ?? "file"}: file not found",
         DirectoryNotFoundException or UnauthorizedAccessException or IOException => e.Message,
         _ => null,
