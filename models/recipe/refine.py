@@ -16,7 +16,7 @@ import torch
 from augment import generate_refinement
 from bert import PairClassifier
 from nli_files import LABELS, train_sources
-from train import batches, collate, evaluate, monitor_sets
+from train import batches, monitor_sets, run_log, sample_scores, train_step
 from wordpiece import WordPiece
 
 QUOTAS = dict(deletion=4000, insertion=2000, synonym=2000, identity=1000)
@@ -40,13 +40,7 @@ def main():
     torch.set_num_threads(args.threads)
     rng = random.Random(args.seed)
     os.makedirs(args.out, exist_ok=True)
-    log = open(os.path.join(args.out, "refine-log.jsonl"), "a", encoding="utf-8")
-
-    def note(**fields):
-        fields["time"] = round(time.time(), 1)
-        print(json.dumps(fields), flush=True)
-        log.write(json.dumps(fields) + "\n")
-        log.flush()
+    note = run_log(args.out, "refine-log.jsonl")
 
     tokenizer = WordPiece(os.path.join(args.base, "vocab.txt"))
     train = train_sources(args.data)
@@ -70,22 +64,12 @@ def main():
     loss_fn = torch.nn.CrossEntropyLoss()
     started, running = time.time(), 0.0
     for step, index in enumerate(plan, 1):
-        ids, mask, types, labels = collate(encoded, index)
-        with torch.autocast("cpu", dtype=torch.bfloat16):
-            logits = model(ids, mask, types)
-        loss = loss_fn(logits.float(), labels)
-        optimizer.zero_grad()
-        loss.backward()
-        torch.nn.utils.clip_grad_norm_(model.parameters(), 1.0)
-        optimizer.step()
-        schedule.step()
-        running += loss.item()
+        running += train_step(model, optimizer, schedule, loss_fn, encoded, index)
         if step % 25 == 0:
             note(event="step", step=step, of=len(plan), loss=round(running / 25, 4), elapsed_s=round(time.time() - started))
             running = 0.0
     torch.save(model.state_dict(), os.path.join(args.out, "final.pt"))
-    scores = {name: evaluate(model, tokenizer, rows, args.max_len) for name, rows in monitor_sets(args.data, args.seed).items()}
-    note(event="done", **{k: {"accuracy": round(a, 4), "contradiction_recall": round(r, 4)} for k, (a, r) in scores.items()})
+    note(event="done", **sample_scores(model, tokenizer, monitor_sets(args.data, args.seed), args.max_len))
 
 
 if __name__ == "__main__":

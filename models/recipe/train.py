@@ -79,6 +79,39 @@ def monitor_sets(data, seed):
     }
 
 
+def run_log(out_dir, file_name):
+    """A note(**fields) function that prints one JSON line and appends it to out_dir/file_name."""
+    log = open(os.path.join(out_dir, file_name), "a", encoding="utf-8")
+
+    def note(**fields):
+        fields["time"] = round(time.time(), 1)
+        print(json.dumps(fields), flush=True)
+        log.write(json.dumps(fields) + "\n")
+        log.flush()
+
+    return note
+
+
+def train_step(model, optimizer, schedule, loss_fn, encoded, index):
+    """One optimiser step on one batch; returns the loss. bf16 autocast: the CPU's bf16 matrix units make
+    a step several times faster than fp32; master weights and the optimiser stay fp32."""
+    ids, mask, types, labels = collate(encoded, index)
+    with torch.autocast("cpu", dtype=torch.bfloat16):
+        logits = model(ids, mask, types)
+    loss = loss_fn(logits.float(), labels)
+    optimizer.zero_grad()
+    loss.backward()
+    torch.nn.utils.clip_grad_norm_(model.parameters(), 1.0)
+    optimizer.step()
+    schedule.step()
+    return loss.item()
+
+
+def sample_scores(model, tokenizer, monitors, max_len):
+    return {name: {"accuracy": round(a, 4), "contradiction_recall": round(r, 4)}
+            for name, (a, r) in ((n, evaluate(model, tokenizer, rows, max_len)) for n, rows in monitors.items())}
+
+
 def main():
     ap = argparse.ArgumentParser()
     ap.add_argument("--data", required=True)
@@ -97,13 +130,7 @@ def main():
     torch.set_num_threads(args.threads)
     rng = random.Random(args.seed)
     os.makedirs(args.out, exist_ok=True)
-    log = open(os.path.join(args.out, "train-log.jsonl"), "a", encoding="utf-8")
-
-    def note(**fields):
-        fields["time"] = round(time.time(), 1)
-        print(json.dumps(fields), flush=True)
-        log.write(json.dumps(fields) + "\n")
-        log.flush()
+    note = run_log(args.out, "train-log.jsonl")
 
     tokenizer = WordPiece(os.path.join(args.base, "vocab.txt"))
     train = train_sources(args.data)
@@ -143,27 +170,14 @@ def main():
     for epoch in range(1, args.epochs + 1):
         running = 0.0
         for index in batches(encoded, args.batch, rng):
-            ids, mask, types, labels = collate(encoded, index)
-            # bf16 autocast: the CPU's bf16 matrix units make a step several times faster than fp32;
-            # master weights and the optimiser stay fp32.
-            with torch.autocast("cpu", dtype=torch.bfloat16):
-                logits = model(ids, mask, types)
-            loss = loss_fn(logits.float(), labels)
-            optimizer.zero_grad()
-            loss.backward()
-            torch.nn.utils.clip_grad_norm_(model.parameters(), 1.0)
-            optimizer.step()
-            schedule.step()
+            running += train_step(model, optimizer, schedule, loss_fn, encoded, index)
             step += 1
-            running += loss.item()
             if step % 25 == 0:
                 note(event="step", epoch=epoch, step=step, of=total_steps, loss=round(running / 25, 4),
                      lr=schedule.get_last_lr()[0], elapsed_s=round(time.time() - started))
                 running = 0.0
         torch.save(model.state_dict(), os.path.join(args.out, f"epoch{epoch}.pt"))
-        scores = {name: evaluate(model, tokenizer, rows, args.max_len) for name, rows in monitors.items()}
-        note(event="epoch", epoch=epoch, **{k: {"accuracy": round(a, 4), "contradiction_recall": round(r, 4)}
-                                           for k, (a, r) in scores.items()})
+        note(event="epoch", epoch=epoch, **sample_scores(model, tokenizer, monitors, args.max_len))
     torch.save(model.state_dict(), os.path.join(args.out, "final.pt"))
     note(event="done", elapsed_s=round(time.time() - started))
 
