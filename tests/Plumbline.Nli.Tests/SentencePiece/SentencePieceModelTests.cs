@@ -135,6 +135,19 @@ public sealed class SentencePieceModelTests
         Assert.Equal(["neutral", "contradiction", "entailment"], model.Card.Labels);
     }
 
+    [Fact]
+    public void Load_ExportWithACardGivingOnlyMaxLength_KeepsEverythingElseFromTheExport()
+    {
+        // A one-line card is how a user caps the length of a brought model; the rest still comes from the export.
+        using var directory = new TempModelDirectory().CopyFrom(Directory(DebertaV3)).Write("nli-model.json", """{ "max_length": 24 }""");
+        using var model = NliModel.Load(directory.Path);
+
+        Assert.Equal(24, model.Card.MaxLength);
+        Assert.Equal(NliTokenizerKind.SentencePiece, model.Card.Tokenizer);
+        Assert.Equal(["contradiction", "entailment", "neutral"], model.Card.Labels);
+        Assert.Equal(24, model.Encode(new SentencePair(Pairs(DebertaV3)[^1].Premise, "x")).Length);
+    }
+
     // Padding ids: [PAD] is piece 0 of a DeBERTa-v3 model; the fairseq dictionary of XLM-R puts <pad> at 1.
     [Theory]
     [InlineData(DebertaV3, 0)]
