@@ -51,6 +51,27 @@ public sealed class SentencePieceModelTests
 
     [Theory]
     [MemberData(nameof(All), MemberType = typeof(TinySentencePieceModels))]
+    public void Encode_FromManyThreadsAtOnce_GivesTheReferenceIds(string name)
+    {
+        // The scorer tokenises from several threads; the segmenters keep no state between calls.
+        using var model = NliModel.Load(Directory(name));
+        var references = Pairs(name);
+
+        var wrong = 0;
+        Parallel.For(0, references.Count * 8, new ParallelOptions { MaxDegreeOfParallelism = 8 }, i =>
+        {
+            var reference = references[i % references.Count];
+            if (!model.Encode(new SentencePair(reference.Premise, reference.Hypothesis)).InputIds.SequenceEqual(reference.InputIds))
+            {
+                Interlocked.Increment(ref wrong);
+            }
+        });
+
+        Assert.Equal(0, wrong);
+    }
+
+    [Theory]
+    [MemberData(nameof(All), MemberType = typeof(TinySentencePieceModels))]
     public void Encode_PairsLongerThanMaxLength_AreCutToMaxLength(string name)
     {
         using var model = NliModel.Load(Directory(name));
