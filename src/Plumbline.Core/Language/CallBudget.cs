@@ -1,15 +1,14 @@
 namespace Plumbline.Core.Language;
 
 /// <summary>
-/// The most model calls and tokens a run may spend. A call is refused once either is used up; the
-/// refusal trips <see cref="Exhausted"/>, which the run loop links into its cancellation so that the
-/// run stops as it would on an interrupt: finished verdicts kept, unjudged claims listed. Calls already
-/// in flight are let finish, so a claim that needs no more calls still completes. Safe for concurrent use.
+/// The most model calls and tokens a run may spend. A call is refused once either is used up (the
+/// model decorator that asks then halts the run, see <see cref="Runs.RunHaltedException"/>); calls
+/// already in flight are let finish, so a claim that needs no more calls still completes. Safe for
+/// concurrent use.
 /// </summary>
-public sealed class CallBudget : IDisposable
+public sealed class CallBudget
 {
     private readonly Lock gate = new();
-    private readonly CancellationTokenSource exhausted = new();
     private int calls;
     private long tokens;
     private string? reason;
@@ -28,9 +27,6 @@ public sealed class CallBudget : IDisposable
     public int? MaxCalls { get; }
 
     public long? MaxTokens { get; }
-
-    /// <summary>Cancelled once a call has been refused.</summary>
-    public CancellationToken Exhausted => exhausted.Token;
 
     /// <summary>Why the budget stopped the run ("the budget of 100 model calls is spent"); null while it has not.</summary>
     public string? Reason
@@ -66,31 +62,26 @@ public sealed class CallBudget : IDisposable
         }
     }
 
-    /// <summary>Counts one call if the budget allows it; otherwise trips <see cref="Exhausted"/> and returns false.</summary>
+    /// <summary>Counts one call if the budget allows it; otherwise records <see cref="Reason"/> and returns false.</summary>
     public bool TryStartCall()
     {
-        string? refused = null;
         lock (gate)
         {
             if (MaxCalls is { } maxCalls && calls >= maxCalls)
             {
-                refused = $"the budget of {maxCalls} model calls is spent";
-            }
-            else if (MaxTokens is { } maxTokens && tokens >= maxTokens)
-            {
-                refused = $"the budget of {maxTokens} tokens is spent";
-            }
-            else
-            {
-                calls++;
-                return true;
+                reason ??= $"the budget of {maxCalls} model calls is spent";
+                return false;
             }
 
-            reason ??= refused;
+            if (MaxTokens is { } maxTokens && tokens >= maxTokens)
+            {
+                reason ??= $"the budget of {maxTokens} tokens is spent";
+                return false;
+            }
+
+            calls++;
+            return true;
         }
-
-        exhausted.Cancel();
-        return false;
     }
 
     /// <summary>Adds what a finished call used.</summary>
@@ -101,6 +92,4 @@ public sealed class CallBudget : IDisposable
             tokens += usage.Total;
         }
     }
-
-    public void Dispose() => exhausted.Dispose();
 }

@@ -7,6 +7,11 @@ namespace Plumbline.Core.Language;
 /// (independently sampled trees of one claim): the same request with another index is another call,
 /// cached and recorded apart.
 /// </summary>
+/// <param name="SampleIndex">
+/// Which independent draw of the same sampled request this is (0 for the first). Two trees of one claim
+/// grown for a stability check differ only here, so that a cache or recording keyed on the request
+/// returns a fresh sample for each tree instead of replaying the first one. Greedy requests always use 0.
+/// </param>
 public sealed record GenerationRequest(
     GenerationPurpose Purpose,
     string Subject,

@@ -49,15 +49,15 @@ public sealed record RequestFingerprint
     }
 
     /// <summary>The fingerprint of a generation request described without its rendered prompt
-    /// (what a recording file holds). <paramref name="sampleIndex"/> 0 is left out of the canonical
-    /// form, so that keys written before sample indices existed stay valid.</summary>
+    /// (what a recording file holds). The sample index is written only when it is above 0, so the
+    /// first sample of a request keeps the key it had before sample indices existed.</summary>
     public static RequestFingerprint ForGeneration(
         GenerationPurpose purpose, string subject, bool? answer, int count, Decoding decoding, string promptVersion, int sampleIndex = 0)
     {
         ArgumentNullException.ThrowIfNull(subject);
+        ArgumentOutOfRangeException.ThrowIfNegative(sampleIndex);
         ArgumentNullException.ThrowIfNull(decoding);
         ArgumentNullException.ThrowIfNull(decoding.Stop);
-        ArgumentOutOfRangeException.ThrowIfNegative(sampleIndex);
         RequireVersion(promptVersion);
 
         var json = new StringBuilder(256);
@@ -83,7 +83,7 @@ public sealed record RequestFingerprint
         }
 
         json.Append(']');
-        if (sampleIndex != 0)
+        if (sampleIndex > 0)
         {
             Field(json, "sample"); json.Append(sampleIndex.ToString(CultureInfo.InvariantCulture));
         }

@@ -74,7 +74,23 @@ public sealed class CachedLanguageModel(
 
     private async Task<RecordedEntry?> FindAsync(string key, RequestFingerprint fingerprint, CancellationToken cancellationToken)
     {
-        if (mode == CacheMode.Refresh || await cache.FindAsync(key, cancellationToken).ConfigureAwait(false) is not { } response)
+        if (mode == CacheMode.Refresh)
+        {
+            return null;
+        }
+
+        string? response;
+        try
+        {
+            response = await cache.FindAsync(key, cancellationToken).ConfigureAwait(false);
+        }
+        catch (Microsoft.Data.Sqlite.SqliteException)
+        {
+            // A cache that cannot be read is no reason to fail a claim: the model is asked instead.
+            return null;
+        }
+
+        if (response is null)
         {
             return null;
         }

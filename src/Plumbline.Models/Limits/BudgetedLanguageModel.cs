@@ -1,10 +1,11 @@
 using Plumbline.Core.Language;
+using Plumbline.Core.Runs;
 
 namespace Plumbline.Models.Limits;
 
 /// <summary>Counts every call that reaches the model against a <see cref="CallBudget"/>; a call the budget
-/// refuses is cancelled (with the budget's token) instead of sent. Placed inside the response cache, so
-/// answers served from the cache cost nothing.</summary>
+/// refuses halts the run (<see cref="RunHaltedException"/>) instead of being sent. Placed inside the
+/// response cache, so answers served from the cache cost nothing.</summary>
 public sealed class BudgetedLanguageModel(ILanguageModel inner, CallBudget budget) : ILanguageModel
 {
     public string Describe => inner.Describe;
@@ -31,7 +32,7 @@ public sealed class BudgetedLanguageModel(ILanguageModel inner, CallBudget budge
     {
         if (!budget.TryStartCall())
         {
-            throw new OperationCanceledException(budget.Reason, budget.Exhausted);
+            throw new RunHaltedException(budget.Reason!);
         }
     }
 }

@@ -116,12 +116,12 @@ internal static class RecordingReader
                 }
                 : null;
             var count = RequireInteger(request, "request", "n", minimum: 1);
+            var sample = request.TryGetProperty("sample", out _) ? RequireInteger(request, "request", "sample", minimum: 0) : 0;
             var temperature = RequireNumber(request, "request", "temperature", 0, double.MaxValue, "a number of at least 0");
             var topP = RequireNumber(request, "request", "top_p", double.Epsilon, 1, "a number above 0 and at most 1");
             var maxTokens = RequireInteger(request, "request", "max_tokens", minimum: 1);
             var stop = RequireStrings(request, "request", "stop");
             var decoding = new Decoding(temperature, topP, maxTokens, stop);
-            var sample = request.TryGetProperty("sample", out _) ? RequireInteger(request, "request", "sample", minimum: 0) : 0;
             var fingerprint = RequestFingerprint.ForGeneration(
                 purpose, subject, answer, count, decoding, RequirePromptVersion(request), sample);
             CheckKey(root, fingerprint);

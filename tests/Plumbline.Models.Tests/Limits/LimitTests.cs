@@ -1,4 +1,5 @@
 using Plumbline.Core.Language;
+using Plumbline.Core.Runs;
 using Plumbline.Models.Limits;
 using Xunit;
 
@@ -18,18 +19,17 @@ public sealed class LimitTests
     }
 
     [Fact]
-    public async Task Budget_RefusesTheCallPastTheLimit_AndTripsTheStopToken()
+    public async Task Budget_RefusesTheCallPastTheLimit_AndHaltsTheRun()
     {
-        using var budget = new CallBudget(maxCalls: 2, maxTokens: null);
+        var budget = new CallBudget(maxCalls: 2, maxTokens: null);
         var model = new BudgetedLanguageModel(new SlowModel(), budget);
         await model.ScoreAnswersAsync(new AnswerRequest("a", "p"), CancellationToken.None);
         await model.ScoreAnswersAsync(new AnswerRequest("b", "p"), CancellationToken.None);
 
-        var refused = await Assert.ThrowsAnyAsync<OperationCanceledException>(() => model.ScoreAnswersAsync(new AnswerRequest("c", "p"), CancellationToken.None));
+        var refused = await Assert.ThrowsAsync<RunHaltedException>(() => model.ScoreAnswersAsync(new AnswerRequest("c", "p"), CancellationToken.None));
 
-        Assert.Equal(budget.Exhausted, refused.CancellationToken);
-        Assert.True(budget.Exhausted.IsCancellationRequested);
-        Assert.Equal("the budget of 2 model calls is spent", budget.Reason);
+        Assert.Equal("the budget of 2 model calls is spent", refused.Message);
+        Assert.Equal(refused.Message, budget.Reason);
         Assert.Equal(2, budget.Calls);
     }
 
@@ -37,12 +37,12 @@ public sealed class LimitTests
     public async Task Budget_TokensSpent_StopsFurtherCalls()
     {
         // Each call of the double costs 7 tokens: after two, 14 >= 10.
-        using var budget = new CallBudget(maxCalls: null, maxTokens: 10);
+        var budget = new CallBudget(maxCalls: null, maxTokens: 10);
         var model = new BudgetedLanguageModel(new SlowModel(), budget);
         await model.ScoreAnswersAsync(new AnswerRequest("a", "p"), CancellationToken.None);
         await model.ScoreAnswersAsync(new AnswerRequest("b", "p"), CancellationToken.None);
 
-        await Assert.ThrowsAnyAsync<OperationCanceledException>(() => model.ScoreAnswersAsync(new AnswerRequest("c", "p"), CancellationToken.None));
+        await Assert.ThrowsAsync<RunHaltedException>(() => model.ScoreAnswersAsync(new AnswerRequest("c", "p"), CancellationToken.None));
         Assert.Equal(14, budget.Tokens);
         Assert.Equal("the budget of 10 tokens is spent", budget.Reason);
     }
