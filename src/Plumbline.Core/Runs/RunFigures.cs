@@ -43,6 +43,27 @@ public sealed record RunFigures(
     TokenUsage Tokens,
     TimeSpan WallTime)
 {
+    /// <summary>Paired direct answer (p(claim) against p(negated claim)) equals gold; null without labelled claims.</summary>
+    public Proportion? PairedDirectAccuracy { get; init; }
+
+    /// <summary>Mean normalised margin of judged claims.</summary>
+    public double MeanNormalisedMargin { get; init; }
+
+    /// <summary>Mean share of sampled trees giving the majority answer, over judged claims; null when one tree per claim was judged.</summary>
+    public double? MeanStability { get; init; }
+
+    /// <summary>Judged claims whose sampled trees tied (no majority).</summary>
+    public int StabilityTies { get; init; }
+
+    /// <summary>Statement pairs read as entailment one way and contradiction the other, over all claims.</summary>
+    public int ConflictingPairs { get; init; }
+
+    /// <summary>Explanations dropped because they did not end a sentence, over all claims.</summary>
+    public int CutOffDiscarded { get; init; }
+
+    /// <summary>Claims whose answer probabilities were estimated by sampling rather than read from token probabilities.</summary>
+    public int EstimatedClaims { get; init; }
+
     public static RunFigures From(IReadOnlyList<Verdict> verdicts, TimeSpan wallTime)
     {
         var judged = verdicts.Where(v => v.Status != ClaimStatus.Failed).ToList();
@@ -74,6 +95,15 @@ public sealed record RunFigures(
             ContradictionLinks: verdicts.Sum(v => v.Links.Count(l => l.Kind == EntailmentKind.Contradiction)),
             ModelCalls: verdicts.Sum(v => v.ModelCalls),
             Tokens: tokens,
-            WallTime: wallTime);
+            WallTime: wallTime)
+        {
+            PairedDirectAccuracy = labelled.Count == 0 ? null : Proportion.Wilson(labelled.Count(v => v.PairedDirectAnswer == v.Claim.Gold), labelled.Count),
+            MeanNormalisedMargin = judged.Count == 0 ? 0.0 : judged.Average(v => v.NormalisedMargin),
+            MeanStability = judged.Any(v => v.Stability is not null) ? judged.Where(v => v.Stability is not null).Average(v => v.Stability!.Share) : null,
+            StabilityTies = judged.Count(v => v.Stability is { Tied: true }),
+            ConflictingPairs = verdicts.Sum(v => v.Conflicts.Count),
+            CutOffDiscarded = verdicts.Sum(v => v.CutOffDiscarded),
+            EstimatedClaims = verdicts.Count(v => v.ProbabilitiesEstimated),
+        };
     }
 }
