@@ -32,9 +32,10 @@ internal static class ClauseBuilder
     /// clauses for pairs whose most likely NLI label is entailment or contradiction with at least the link
     /// floor's probability. Real weights are multiplied by the scale and rounded half away from zero.
     /// </summary>
-    public static BuiltClauses Build(ExplanationTree tree, IReadOnlyList<ScoredPair> scored, ClauseRules rules)
+    public static BuiltClauses Build(ExplanationTree tree, IReadOnlyList<PairScore> scored, ClauseRules rules)
     {
         ArgumentOutOfRangeException.ThrowIfNegativeOrZero(rules.Scale);
+        ArgumentNullException.ThrowIfNull(scored);
         var kept = tree.Kept;
         var variableOf = new Dictionary<int, int>(kept.Count);
         foreach (var statement in kept)
@@ -43,8 +44,8 @@ internal static class ClauseBuilder
         }
 
         var clauses = new List<WeightedClause>();
-        var origins = new List<string>();
-        void Add(double weight, string origin, params int[] literals)
+        var origins = new List<ClauseOrigin>();
+        void Add(double weight, ClauseOrigin origin, params int[] literals)
         {
             var scaled = (long)Math.Round(weight * rules.Scale, MidpointRounding.AwayFromZero);
             // A clause that weighs nothing changes no optimum, and WCNF wants positive weights.
@@ -78,11 +79,11 @@ internal static class ClauseBuilder
             var (from, to) = (Literal(link.From, link.FromNegation), Literal(link.To, link.ToNegation));
             if (link.Kind == EntailmentKind.Entailment)
             {
-                Add(weight, ClauseOrigin.Entails(link), -from, to);
+                Add(weight, ClauseOrigin.Of(link), -from, to);
             }
             else if (rules.Contradictions == ContradictionCount.EachDirection)
             {
-                Add(weight, ClauseOrigin.Contradicts(link), -from, -to);
+                Add(weight, ClauseOrigin.Of(link), -from, -to);
             }
             else if (counted.Add((Math.Min(link.From, link.To), Math.Max(link.From, link.To))))
             {
@@ -91,7 +92,7 @@ internal static class ClauseBuilder
                 var pairWeight = rules.Weighting == ClauseWeighting.NliProbability && reverse is not null
                     ? Math.Max(link.Probability, reverse.Probability)
                     : weight;
-                Add(pairWeight, ClauseOrigin.Contradicts(link), -from, -to);
+                Add(pairWeight, ClauseOrigin.Of(link), -from, -to);
             }
         }
 
@@ -112,16 +113,16 @@ internal static class ClauseBuilder
     /// probability reaches the floor. Pairs read as entailment one way and contradiction the other are listed
     /// as conflicts, and dropped when the rules say so.
     /// </summary>
-    private static (List<Link> Links, List<LinkConflict> Conflicts) LinksOf(IReadOnlyList<ScoredPair> scored, ClauseRules rules)
+    private static (List<Link> Links, List<LinkConflict> Conflicts) LinksOf(IReadOnlyList<PairScore> scored, ClauseRules rules)
     {
         var links = new List<Link>();
-        foreach (var (pair, scores) in scored)
+        foreach (var pair in scored)
         {
-            var kind = scores.Kind;
-            var probability = scores.ProbabilityOf(kind);
+            var kind = pair.Scores.Kind;
+            var probability = pair.Scores.ProbabilityOf(kind);
             if (kind != EntailmentKind.Neutral && probability >= rules.LinkFloor)
             {
-                links.Add(new Link(pair.Premise.Id, pair.Hypothesis.Id, kind, probability, pair.PremiseNegated, pair.HypothesisNegated));
+                links.Add(new Link(pair.From, pair.To, kind, probability, pair.FromNegation, pair.ToNegation));
             }
         }
 

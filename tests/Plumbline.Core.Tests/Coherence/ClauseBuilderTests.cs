@@ -37,9 +37,8 @@ public sealed class ClauseBuilderTests
     /// <summary>Scores the tree's pairs in pair order, as the engine does.</summary>
     internal static BuiltClauses Build(ExplanationTree tree, IReadOnlyList<EntailmentScores> scores, ClauseRules rules, NliText nliText = NliText.Statement)
     {
-        var pairs = ClauseBuilder.OrderedPairs(tree, nliText);
-        Assert.Equal(pairs.Count, scores.Count);
-        return ClauseBuilder.Build(tree, [.. pairs.Select((p, i) => new ScoredPair(p, scores[i]))], rules with { NliText = nliText });
+        Assert.Equal(ClauseBuilder.OrderedPairs(tree).Count, scores.Count);
+        return ClauseBuilder.Build(tree, Scored(tree, scores, nliText), rules with { NliText = nliText });
     }
 
     [Fact]
@@ -135,7 +134,7 @@ public sealed class ClauseBuilderTests
 
         Assert.Equal([new Link(1, 0, EntailmentKind.Entailment, 0.9), new Link(2, 0, EntailmentKind.Contradiction, 0.7)], built.Links);
         Assert.Empty(built.Conflicts);
-        Assert.Equal(["belief: #1", "belief: #2", "#1 entails #0", "#2 contradicts #0"], built.Problem.Origins);
+        Assert.Equal(["belief: #1", "belief: #2", "#1 entails #0", "#2 contradicts #0"], built.Problem.Origins.Select(o => o.ToString()));
     }
 
     [Fact]
@@ -235,6 +234,33 @@ public sealed class ClauseBuilderTests
         Assert.Equal([("belief: #0", 800L, "1")], Describe(built.Problem));
     }
 
+    [Fact]
+    public void Build_PairsInAnotherOrder_SameClausesBecauseEachPairCarriesItsScores()
+    {
+        var reversed = Enumerable.Reverse(Scored(Tree, Scores)).ToList();
+
+        var built = ClauseBuilder.Build(Tree, reversed, Unit);
+
+        Assert.Equal(
+            Describe(ClauseBuilder.Build(Tree, Scored(Tree, Scores), Unit).Problem).Order(),
+            Describe(built.Problem).Order());
+    }
+
+    [Fact]
+    public void Build_Origins_AreTypedWithTheirStatements()
+    {
+        var origins = ClauseBuilder.Build(Tree, Scored(Tree, Scores), Unit).Problem.Origins;
+
+        Assert.Equal(new ClauseOrigin(ClauseKind.Belief, 1), origins[0]);
+        Assert.Equal(new ClauseOrigin(ClauseKind.Entailment, 1, 0), origins[2]);
+        Assert.Equal([2, 0], origins[4].Statements);
+        Assert.Equal(ClauseKind.Contradiction, origins[4].Kind);
+    }
+
+    /// <summary>The ordered pairs with the scores listed above, each pair carrying its own.</summary>
+    private static List<PairScore> Scored(ExplanationTree tree, IReadOnlyList<EntailmentScores> scores, NliText nliText = NliText.Statement) =>
+        [.. ClauseBuilder.OrderedPairs(tree, nliText).Zip(scores, (pair, score) => new PairScore(pair.Premise.Id, pair.Hypothesis.Id, score, pair.PremiseNegated, pair.HypothesisNegated))];
+
     private static List<(string Origin, long Weight, string Literals)> Describe(CoherenceProblem problem) =>
-        [.. problem.Problem.Clauses.Select((c, i) => (problem.Origins[i], c.Weight, string.Join(' ', c.Literals)))];
+        [.. problem.Problem.Clauses.Select((c, i) => (problem.Origins[i].ToString(), c.Weight, string.Join(' ', c.Literals)))];
 }
