@@ -7,7 +7,7 @@ namespace Plumbline.Core.Coherence;
 /// <summary>Turns a pruned tree and the NLI scores of its statement pairs into weighted clauses.</summary>
 internal static class ClauseBuilder
 {
-    /// <summary>Every ordered pair of distinct kept statements, premise first, in the order scores are expected.</summary>
+    /// <summary>Every ordered pair of distinct kept statements, premise first: the pairs the NLI model scores.</summary>
     public static IReadOnlyList<(Statement Premise, Statement Hypothesis)> OrderedPairs(ExplanationTree tree)
     {
         var kept = tree.Kept;
@@ -31,15 +31,10 @@ internal static class ClauseBuilder
     /// integral leaves, consistency clauses for pairs whose most likely NLI label is entailment or
     /// contradiction. Real weights are multiplied by <paramref name="scale"/> and rounded half away from zero.
     /// </summary>
-    public static BuiltClauses Build(ExplanationTree tree, IReadOnlyList<EntailmentScores> scores, ClauseWeighting weighting, int scale)
+    public static BuiltClauses Build(ExplanationTree tree, IReadOnlyList<PairScore> scored, ClauseWeighting weighting, int scale)
     {
         ArgumentOutOfRangeException.ThrowIfNegativeOrZero(scale);
-        var pairs = OrderedPairs(tree);
-        if (scores.Count != pairs.Count)
-        {
-            throw new InvalidOperationException($"the NLI scorer returned {scores.Count} results for {pairs.Count} statement pairs");
-        }
-
+        ArgumentNullException.ThrowIfNull(scored);
         var kept = tree.Kept;
         var variableOf = new Dictionary<int, int>(kept.Count);
         foreach (var statement in kept)
@@ -48,8 +43,8 @@ internal static class ClauseBuilder
         }
 
         var clauses = new List<WeightedClause>();
-        var origins = new List<string>();
-        void Add(double weight, string origin, params int[] literals)
+        var origins = new List<ClauseOrigin>();
+        void Add(double weight, ClauseOrigin origin, params int[] literals)
         {
             var scaled = (long)Math.Round(weight * scale, MidpointRounding.AwayFromZero);
             // A clause that weighs nothing changes no optimum, and WCNF wants positive weights.
@@ -74,26 +69,25 @@ internal static class ClauseBuilder
         }
 
         var links = new List<Link>();
-        for (var i = 0; i < pairs.Count; i++)
+        foreach (var pair in scored)
         {
-            var kind = scores[i].Kind;
+            var kind = pair.Scores.Kind;
             if (kind == EntailmentKind.Neutral)
             {
                 continue;
             }
 
-            var (premise, hypothesis) = pairs[i];
-            var probability = scores[i].ProbabilityOf(kind);
-            links.Add(new Link(premise.Id, hypothesis.Id, kind, probability));
+            var probability = pair.Scores.ProbabilityOf(kind);
+            links.Add(new Link(pair.From, pair.To, kind, probability));
             var weight = weighting == ClauseWeighting.NliProbability ? probability : 1.0;
-            var (from, to) = (variableOf[premise.Id], variableOf[hypothesis.Id]);
+            var (from, to) = (variableOf[pair.From], variableOf[pair.To]);
             if (kind == EntailmentKind.Entailment)
             {
-                Add(weight, ClauseOrigin.Entails(premise.Id, hypothesis.Id), -from, to);
+                Add(weight, ClauseOrigin.Entails(pair.From, pair.To), -from, to);
             }
             else
             {
-                Add(weight, ClauseOrigin.Contradicts(premise.Id, hypothesis.Id), -from, -to);
+                Add(weight, ClauseOrigin.Contradicts(pair.From, pair.To), -from, -to);
             }
         }
 

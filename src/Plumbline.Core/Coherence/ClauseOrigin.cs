@@ -1,13 +1,36 @@
+using System.Globalization;
+using System.Text.Json.Serialization;
+
 namespace Plumbline.Core.Coherence;
 
-/// <summary>Readable names for why a clause exists; statement ids are written "#id".</summary>
-public static class ClauseOrigin
+/// <summary>
+/// Why a clause exists, as data: its kind, the statement it is about and, for a link, the other statement.
+/// <see cref="ToString"/> gives the readable form ("belief: #3", "#2 entails #5", "#2 contradicts #5") that
+/// WCNF comments and reports print; readers that need the statements use the fields instead of parsing it.
+/// </summary>
+/// <param name="Kind">Belief, entailment, contradiction or pin.</param>
+/// <param name="Statement">The statement of a belief or pin clause; the premise of a link.</param>
+/// <param name="Other">The hypothesis of a link; null otherwise.</param>
+/// <param name="Value">The value a pin fixes; null otherwise.</param>
+public sealed record ClauseOrigin(ClauseKind Kind, int Statement, int? Other = null, bool? Value = null)
 {
-    public static string Belief(int statementId) => $"belief: #{statementId}";
+    public static ClauseOrigin Belief(int statementId) => new(ClauseKind.Belief, statementId);
 
-    public static string Entails(int from, int to) => $"#{from} entails #{to}";
+    public static ClauseOrigin Entails(int from, int to) => new(ClauseKind.Entailment, from, to);
 
-    public static string Contradicts(int from, int to) => $"#{from} contradicts #{to}";
+    public static ClauseOrigin Contradicts(int from, int to) => new(ClauseKind.Contradiction, from, to);
 
-    public static string Pin(int statementId, bool value) => $"pin: #{statementId} = {(value ? "true" : "false")}";
+    public static ClauseOrigin Pin(int statementId, bool value) => new(ClauseKind.Pin, statementId, Value: value);
+
+    /// <summary>The statements the clause mentions, premise first.</summary>
+    [JsonIgnore]
+    public IReadOnlyList<int> Statements => Other is { } other ? [Statement, other] : [Statement];
+
+    public override string ToString() => Kind switch
+    {
+        ClauseKind.Belief => string.Create(CultureInfo.InvariantCulture, $"belief: #{Statement}"),
+        ClauseKind.Entailment => string.Create(CultureInfo.InvariantCulture, $"#{Statement} entails #{Other}"),
+        ClauseKind.Contradiction => string.Create(CultureInfo.InvariantCulture, $"#{Statement} contradicts #{Other}"),
+        _ => string.Create(CultureInfo.InvariantCulture, $"pin: #{Statement} = {(Value == true ? "true" : "false")}"),
+    };
 }

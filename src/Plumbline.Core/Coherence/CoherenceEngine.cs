@@ -11,7 +11,7 @@ namespace Plumbline.Core.Coherence;
 /// Judges claims: grows the explanation tree, scores every ordered pair of kept statements with the
 /// NLI model, and solves the weighted MAX-SAT problem for the most coherent truth assignment.
 /// </summary>
-public sealed class CoherenceEngine
+public sealed class CoherenceEngine : IClaimJudge
 {
     private readonly IEntailmentScorer scorer;
     private readonly IMaxSatSolver solver;
@@ -60,11 +60,8 @@ public sealed class CoherenceEngine
 
             stage = $"scoring statement pairs with {scorer.Describe}";
             started = time.GetTimestamp();
-            var pairs = ClauseBuilder.OrderedPairs(tree);
-            IReadOnlyList<EntailmentScores> scores = pairs.Count == 0
-                ? []
-                : await scorer.ScoreAsync([.. pairs.Select(p => new SentencePair(p.Premise.Text, p.Hypothesis.Text))], cancellationToken);
-            var clauses = ClauseBuilder.Build(tree, scores, options.Weighting, options.WeightScale);
+            var scored = await ScorePairsAsync(tree, cancellationToken);
+            var clauses = ClauseBuilder.Build(tree, scored, options.Weighting, options.WeightScale);
             nliTime = time.GetElapsedTime(started);
 
             stage = $"solving with {solver.Describe}";
@@ -106,13 +103,14 @@ public sealed class CoherenceEngine
                 meter.Estimated,
                 new VerdictTimings(treeTime, nliTime, solveTime),
                 Error: null,
-                Problem: problem);
+                Problem: problem)
+            {
+                Pairs = scored,
+                Values = ValuesOf(problem, best.Assignment),
+                FalsifiedWithOtherAnswer = FalsifiedBy(problem, other.Assignment),
+            };
         }
-        catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
-        {
-            throw;
-        }
-        catch (Exception ex)
+        catch (Exception ex) when (IsKnownFailure(ex))
         {
             return Verdict.Failed(
                 claim,
@@ -123,6 +121,49 @@ public sealed class CoherenceEngine
                 meter.Tokens,
                 new VerdictTimings(treeTime, nliTime, solveTime));
         }
+    }
+
+    /// <summary>
+    /// Failures a claim can meet in normal operation: a backend that cannot answer, an NLI batch that cannot be
+    /// scored, a solve without an assignment. Anything else (cancellation, a halted run, a bug) propagates.
+    /// </summary>
+    internal static bool IsKnownFailure(Exception e) =>
+        e is ModelRequestException or EntailmentScoringException or MaxSatSolverException;
+
+    /// <summary>Scores every ordered pair of kept statements in one batch and keeps each pair with its scores.</summary>
+    private async Task<IReadOnlyList<PairScore>> ScorePairsAsync(ExplanationTree tree, CancellationToken cancellationToken)
+    {
+        var pairs = ClauseBuilder.OrderedPairs(tree);
+        if (pairs.Count == 0)
+        {
+            return [];
+        }
+
+        var scores = await scorer.ScoreAsync([.. pairs.Select(p => new SentencePair(p.Premise.Text, p.Hypothesis.Text))], cancellationToken);
+        if (scores.Count != pairs.Count)
+        {
+            throw new EntailmentScoringException($"the NLI scorer returned {scores.Count} results for {pairs.Count} statement pairs");
+        }
+
+        var scored = new PairScore[pairs.Count];
+        for (var i = 0; i < pairs.Count; i++)
+        {
+            scored[i] = new PairScore(pairs[i].Premise.Id, pairs[i].Hypothesis.Id, scores[i]);
+        }
+
+        return scored;
+    }
+
+    /// <summary>The value of every kept statement in an assignment, by statement id.</summary>
+    private static Dictionary<int, bool> ValuesOf(CoherenceProblem problem, IReadOnlyList<bool> assignment)
+    {
+        var values = new Dictionary<int, bool>(problem.StatementOfVariable.Count);
+        for (var v = 0; v < problem.StatementOfVariable.Count; v++)
+        {
+            values[problem.StatementOfVariable[v]] = assignment[v];
+        }
+
+        return values;
     }
 
     /// <summary>Judges claims one after another (requests within a claim run concurrently), yielding each verdict as it is ready.</summary>
@@ -147,7 +188,7 @@ public sealed class CoherenceEngine
     private static MaxSatSolution RequireAssignment(MaxSatSolution solution) =>
         solution.HasAssignment
             ? solution
-            : throw new InvalidOperationException($"the solver found no assignment (status {solution.Status})");
+            : throw new MaxSatSolverException($"the solver found no assignment (status {solution.Status})");
 
     private static List<FalsifiedClause> FalsifiedBy(CoherenceProblem problem, IReadOnlyList<bool> assignment)
     {

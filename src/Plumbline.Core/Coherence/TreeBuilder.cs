@@ -10,8 +10,12 @@ namespace Plumbline.Core.Coherence;
 /// </summary>
 internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, NegationMode negationMode)
 {
-    public async Task<BuiltTree> BuildAsync(string claimText, CallMeter meter, CancellationToken cancellationToken)
+    /// <param name="sampleIndex">Which independent tree of the claim this is; it goes on every sampled
+    /// request, so that each tree draws its own explanations. Greedy requests and answer probabilities are
+    /// the same for every tree and keep index 0, so a cache answers them once.</param>
+    public async Task<BuiltTree> BuildAsync(string claimText, CallMeter meter, CancellationToken cancellationToken, int sampleIndex = 0)
     {
+        ArgumentOutOfRangeException.ThrowIfNegative(sampleIndex);
         var statements = new List<Statement>();
         var keys = new Dictionary<StatementKey, int>();
         var root = new Draft(0, claimText.Trim(), 0, null, null);
@@ -24,7 +28,7 @@ internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, Negatio
         IReadOnlyList<Statement> toExpand = evaluatedRoot;
         for (var depth = 1; depth <= shape.MaxDepth && toExpand.Count > 0; depth++)
         {
-            var drafts = await AbduceAsync(toExpand, depth, statements.Count, keys, meter, cancellationToken);
+            var drafts = await AbduceAsync(toExpand, depth, statements.Count, keys, sampleIndex, meter, cancellationToken);
             var (evaluated, _) = await EvaluateAsync(drafts, meter, cancellationToken);
             statements.AddRange(evaluated);
             toExpand = [.. evaluated.Where(s => !s.IsIntegral)];
@@ -81,6 +85,7 @@ internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, Negatio
         int depth,
         int nextId,
         Dictionary<StatementKey, int> keys,
+        int sampleIndex,
         CallMeter meter,
         CancellationToken cancellationToken)
     {
@@ -93,7 +98,8 @@ internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, Negatio
                 ask.Answer,
                 PromptBook.Abduction(ask.Parent.Text, ask.Answer),
                 level.Decoding,
-                level.Width),
+                level.Width,
+                level.Decoding.IsGreedy ? 0 : sampleIndex),
             meter,
             cancellationToken)));
 

@@ -47,6 +47,18 @@ public sealed record Verdict(
     string? Error = null,
     [property: JsonIgnore] CoherenceProblem? Problem = null)
 {
+    /// <summary>Every ordered pair of kept statements with its NLI scores; empty when scoring did not happen.</summary>
+    public IReadOnlyList<PairScore> Pairs { get; init; } = [];
+
+    /// <summary>The truth value of every kept statement in the chosen optimum, by statement id; empty when no solve happened.</summary>
+    public IReadOnlyDictionary<int, bool> Values { get; init; } = new Dictionary<int, bool>();
+
+    /// <summary>
+    /// Soft clauses broken by the best assignment that gives the claim the other answer. Those it breaks and the
+    /// optimum keeps are what decided the answer; empty when no solve happened.
+    /// </summary>
+    public IReadOnlyList<FalsifiedClause> FalsifiedWithOtherAnswer { get; init; } = [];
+
     [JsonIgnore]
     public bool Overturned => Status == ClaimStatus.Overturned;
 

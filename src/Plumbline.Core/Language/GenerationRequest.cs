@@ -5,10 +5,16 @@ namespace Plumbline.Core.Language;
 /// model-independent terms (recordings are keyed on them); <see cref="Prompt"/> is the rendered text
 /// that live backends send.
 /// </summary>
+/// <param name="SampleIndex">
+/// Which independent draw of the same sampled request this is (0 for the first). Two trees of one claim
+/// grown for a stability check differ only here, so that a cache or recording keyed on the request
+/// returns a fresh sample for each tree instead of replaying the first one. Greedy requests always use 0.
+/// </param>
 public sealed record GenerationRequest(
     GenerationPurpose Purpose,
     string Subject,
     bool? Answer,
     string Prompt,
     Decoding Decoding,
-    int Count);
+    int Count,
+    int SampleIndex = 0);

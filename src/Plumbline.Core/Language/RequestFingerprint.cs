@@ -39,7 +39,7 @@ public sealed record RequestFingerprint
     public static RequestFingerprint Of(GenerationRequest request, string promptVersion)
     {
         ArgumentNullException.ThrowIfNull(request);
-        return ForGeneration(request.Purpose, request.Subject, request.Answer, request.Count, request.Decoding, promptVersion);
+        return ForGeneration(request.Purpose, request.Subject, request.Answer, request.Count, request.Decoding, promptVersion, request.SampleIndex);
     }
 
     public static RequestFingerprint Of(AnswerRequest request, string promptVersion)
@@ -49,11 +49,13 @@ public sealed record RequestFingerprint
     }
 
     /// <summary>The fingerprint of a generation request described without its rendered prompt
-    /// (what a recording file holds).</summary>
+    /// (what a recording file holds). The sample index is written only when it is above 0, so the
+    /// first sample of a request keeps the key it had before sample indices existed.</summary>
     public static RequestFingerprint ForGeneration(
-        GenerationPurpose purpose, string subject, bool? answer, int count, Decoding decoding, string promptVersion)
+        GenerationPurpose purpose, string subject, bool? answer, int count, Decoding decoding, string promptVersion, int sampleIndex = 0)
     {
         ArgumentNullException.ThrowIfNull(subject);
+        ArgumentOutOfRangeException.ThrowIfNegative(sampleIndex);
         ArgumentNullException.ThrowIfNull(decoding);
         ArgumentNullException.ThrowIfNull(decoding.Stop);
         RequireVersion(promptVersion);
@@ -81,6 +83,11 @@ public sealed record RequestFingerprint
         }
 
         json.Append(']');
+        if (sampleIndex > 0)
+        {
+            Field(json, "sample"); json.Append(sampleIndex.ToString(CultureInfo.InvariantCulture));
+        }
+
         Field(json, "prompt_version"); Text(json, promptVersion);
         json.Append('}');
         return new RequestFingerprint(GenerateKind, promptVersion, json.ToString());

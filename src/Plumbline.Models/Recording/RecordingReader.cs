@@ -13,7 +13,7 @@ internal static class RecordingReader
 {
     private static readonly string[] LineFields = ["key", "request", "response"];
     private static readonly string[] GenerateFields =
-        ["kind", "purpose", "subject", "answer", "n", "temperature", "top_p", "max_tokens", "stop", "prompt_version"];
+        ["kind", "purpose", "subject", "answer", "n", "temperature", "top_p", "max_tokens", "stop", "sample", "prompt_version"];
     private static readonly string[] AnswerFields = ["kind", "statement", "prompt_version"];
     private static readonly string[] GenerationResponseFields = ["texts", "prompt_tokens", "completion_tokens"];
     private static readonly string[] AnswerResponseFields = ["p_true", "p_false", "estimated", "prompt_tokens", "completion_tokens"];
@@ -110,13 +110,14 @@ internal static class RecordingReader
                 }
                 : null;
             var count = RequireInteger(request, "request", "n", minimum: 1);
+            var sample = request.TryGetProperty("sample", out _) ? RequireInteger(request, "request", "sample", minimum: 0) : 0;
             var temperature = RequireNumber(request, "request", "temperature", 0, double.MaxValue, "a number of at least 0");
             var topP = RequireNumber(request, "request", "top_p", double.Epsilon, 1, "a number above 0 and at most 1");
             var maxTokens = RequireInteger(request, "request", "max_tokens", minimum: 1);
             var stop = RequireStrings(request, "request", "stop");
             var decoding = new Decoding(temperature, topP, maxTokens, stop);
             var fingerprint = RequestFingerprint.ForGeneration(
-                purpose, subject, answer, count, decoding, RequirePromptVersion(request));
+                purpose, subject, answer, count, decoding, RequirePromptVersion(request), sample);
             CheckKey(root, fingerprint);
 
             var response = RequireObject(root, null, "response");

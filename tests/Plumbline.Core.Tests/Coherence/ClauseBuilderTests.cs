@@ -35,7 +35,7 @@ public sealed class ClauseBuilderTests
     [Fact]
     public void Build_UnitWeighting_ExactClausesAndScaledWeights()
     {
-        var built = ClauseBuilder.Build(Tree, Scores, ClauseWeighting.Unit, 1000);
+        var built = ClauseBuilder.Build(Tree, Scored(Tree, Scores), ClauseWeighting.Unit, 1000);
 
         var problem = built.Problem;
         Assert.Equal(3, problem.Problem.VariableCount);
@@ -65,7 +65,7 @@ public sealed class ClauseBuilderTests
     [Fact]
     public void Build_NliProbabilityWeighting_LinksWeighTheirProbability()
     {
-        var built = ClauseBuilder.Build(Tree, Scores, ClauseWeighting.NliProbability, 1000);
+        var built = ClauseBuilder.Build(Tree, Scored(Tree, Scores), ClauseWeighting.NliProbability, 1000);
 
         Assert.Equal([800L, 750L, 900L, 600L, 700L, 400L], built.Problem.Problem.Clauses.Select(c => c.Weight));
     }
@@ -73,7 +73,7 @@ public sealed class ClauseBuilderTests
     [Fact]
     public void Build_SmallScale_RoundsHalfAwayFromZero()
     {
-        var built = ClauseBuilder.Build(Tree, Scores, ClauseWeighting.Unit, 10);
+        var built = ClauseBuilder.Build(Tree, Scored(Tree, Scores), ClauseWeighting.Unit, 10);
 
         // 0.25 -> 1 - 0.25 = 0.75 -> 7.5 -> 8.
         Assert.Equal([8L, 8L, 10L, 10L, 10L, 10L], built.Problem.Problem.Clauses.Select(c => c.Weight));
@@ -90,9 +90,32 @@ public sealed class ClauseBuilderTests
     }
 
     [Fact]
-    public void Build_ScoreCountMismatch_Throws() =>
-        Assert.Throws<InvalidOperationException>(() => ClauseBuilder.Build(Tree, Scores[..5], ClauseWeighting.Unit, 1000));
+    public void Build_PairsInAnotherOrder_SameClausesBecauseEachPairCarriesItsScores()
+    {
+        var reversed = Enumerable.Reverse(Scored(Tree, Scores)).ToList();
+
+        var built = ClauseBuilder.Build(Tree, reversed, ClauseWeighting.Unit, 1000);
+
+        Assert.Equal(
+            Describe(ClauseBuilder.Build(Tree, Scored(Tree, Scores), ClauseWeighting.Unit, 1000).Problem).Order(),
+            Describe(built.Problem).Order());
+    }
+
+    [Fact]
+    public void Build_Origins_AreTypedWithTheirStatements()
+    {
+        var origins = ClauseBuilder.Build(Tree, Scored(Tree, Scores), ClauseWeighting.Unit, 1000).Problem.Origins;
+
+        Assert.Equal(new ClauseOrigin(ClauseKind.Belief, 1), origins[0]);
+        Assert.Equal(new ClauseOrigin(ClauseKind.Entailment, 1, 0), origins[2]);
+        Assert.Equal([2, 0], origins[4].Statements);
+        Assert.Equal(ClauseKind.Contradiction, origins[4].Kind);
+    }
+
+    /// <summary>The ordered pairs with the scores listed above, each pair carrying its own.</summary>
+    private static List<PairScore> Scored(ExplanationTree tree, EntailmentScores[] scores) =>
+        [.. ClauseBuilder.OrderedPairs(tree).Zip(scores, (pair, score) => new PairScore(pair.Premise.Id, pair.Hypothesis.Id, score))];
 
     private static List<(string Origin, long Weight, string Literals)> Describe(CoherenceProblem problem) =>
-        [.. problem.Problem.Clauses.Select((c, i) => (problem.Origins[i], c.Weight, string.Join(' ', c.Literals)))];
+        [.. problem.Problem.Clauses.Select((c, i) => (problem.Origins[i].ToString(), c.Weight, string.Join(' ', c.Literals)))];
 }

@@ -1,7 +1,9 @@
 using Plumbline.Core.Claims;
 using Plumbline.Core.Coherence;
+using Plumbline.Core.Entailment;
 using Plumbline.Core.Language;
 using Plumbline.Core.MaxSat;
+using Plumbline.Core.Runs;
 using Plumbline.Core.Tests.Doubles;
 using Plumbline.Core.Trees;
 using static Plumbline.Core.Tests.Coherence.TreeBuilderTests;
@@ -42,7 +44,7 @@ public sealed class CoherenceEngineTests
         return (model, scorer);
     }
 
-    private static CoherenceEngine Engine(ILanguageModel model, ScriptedScorer scorer, CoherenceOptions? options = null, IMaxSatSolver? solver = null) =>
+    private static CoherenceEngine Engine(ILanguageModel model, IEntailmentScorer scorer, CoherenceOptions? options = null, IMaxSatSolver? solver = null) =>
         new(model, scorer, solver ?? new ExhaustiveSolver(), options ?? OneLevel, TimeProvider.System);
 
     [Fact]
@@ -62,7 +64,7 @@ public sealed class CoherenceEngineTests
         Assert.Equal(800, verdict.ObjectiveCost);
         Assert.Equal(SolveStatus.Optimal, verdict.SolveStatus);
         var falsified = Assert.Single(verdict.Falsified);
-        Assert.Equal(("belief: #1", 0.8), (falsified.Origin, falsified.Weight));
+        Assert.Equal(("belief: #1", 0.8), (falsified.Origin.ToString(), falsified.Weight));
         Assert.Equal(3, verdict.Links.Count);
         Assert.True(verdict.TwoSided);
         Assert.Equal(3, verdict.IntegralCount);
@@ -144,6 +146,54 @@ public sealed class CoherenceEngineTests
     }
 
     [Fact]
+    public async Task JudgeAsync_HandBuiltExample_ValuesAndDecidingClausesAsComputedByHand()
+    {
+        var (model, scorer) = Example(directPTrue: 0.7);
+
+        var verdict = await Engine(model, scorer).JudgeAsync(Claim, CancellationToken.None);
+
+        // By hand (see Example): the optimum holds C false, A false, B true; the best with C true holds
+        // A true, B false and breaks only "belief: #2".
+        Assert.Equal(new Dictionary<int, bool> { [0] = false, [1] = false, [2] = true }, verdict.Values);
+        var other = Assert.Single(verdict.FalsifiedWithOtherAnswer);
+        Assert.Equal((ClauseOrigin.Belief(2), 0.9), (other.Origin, other.Weight));
+        // Six ordered pairs among three statements, each with the scores the scorer gave that pair.
+        Assert.Equal(6, verdict.Pairs.Count);
+        Assert.Equal(ScriptedScorer.Contradicts(0.8), verdict.Pairs.Single(p => (p.From, p.To) == (2, 0)).Scores);
+        Assert.Equal(ScriptedScorer.Neutral, verdict.Pairs.Single(p => (p.From, p.To) == (0, 2)).Scores);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_ScorerReturnsTooFewResults_FailedNamingTheCount()
+    {
+        var (model, _) = Example(0.7);
+
+        var verdict = await Engine(model, new ShortScorer()).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Equal(ClaimStatus.Failed, verdict.Status);
+        Assert.Contains("returned 5 results for 6 statement pairs", verdict.Error, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_UnknownExceptionInTheScorer_PropagatesAsABug()
+    {
+        var (model, _) = Example(0.7);
+
+        await Assert.ThrowsAsync<FormatException>(() => Engine(model, new ThrowingScorer(new FormatException())).JudgeAsync(Claim, CancellationToken.None));
+    }
+
+    [Fact]
+    public async Task JudgeAsync_RunHalted_PropagatesInsteadOfFailingTheClaim()
+    {
+        var (model, _) = Example(0.7);
+
+        var halted = await Assert.ThrowsAsync<RunHaltedException>(
+            () => Engine(model, new ThrowingScorer(new RunHaltedException("budget of 10 calls spent"))).JudgeAsync(Claim, CancellationToken.None));
+
+        Assert.Equal("budget of 10 calls spent", halted.Message);
+    }
+
+    [Fact]
     public async Task JudgeAsync_Cancelled_Throws()
     {
         var (_, scorer) = Example(0.7);
@@ -219,6 +269,22 @@ public sealed class CoherenceEngineTests
             var solution = await inner.SolveAsync(problem, cancellationToken);
             return problem.Clauses.Any(c => c.IsHard && c.Literals.SequenceEqual([1])) ? solution with { Status = SolveStatus.Feasible } : solution;
         }
+    }
+
+    private sealed class ShortScorer : IEntailmentScorer
+    {
+        public string Describe => "short";
+
+        public Task<IReadOnlyList<EntailmentScores>> ScoreAsync(IReadOnlyList<SentencePair> pairs, CancellationToken cancellationToken) =>
+            Task.FromResult<IReadOnlyList<EntailmentScores>>([.. pairs.Skip(1).Select(_ => ScriptedScorer.Neutral)]);
+    }
+
+    private sealed class ThrowingScorer(Exception exception) : IEntailmentScorer
+    {
+        public string Describe => "throwing";
+
+        public Task<IReadOnlyList<EntailmentScores>> ScoreAsync(IReadOnlyList<SentencePair> pairs, CancellationToken cancellationToken) =>
+            Task.FromException<IReadOnlyList<EntailmentScores>>(exception);
     }
 
     private sealed class NoSolution : IMaxSatSolver

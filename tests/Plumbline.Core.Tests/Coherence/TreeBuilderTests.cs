@@ -46,6 +46,21 @@ public sealed class TreeBuilderTests
     }
 
     [Fact]
+    public async Task BuildAsync_SampleIndex_OnlySampledAbductionsCarryIt()
+    {
+        var model = ScriptedModel.Growing(s => s.StartsWith("Not: ", StringComparison.Ordinal)
+            ? (s.Count(c => c == '/') == 2 ? 0.1 : 0.9)
+            : 0.9);
+
+        await new TreeBuilder(model, TreeShape.Default, NegationMode.Model).BuildAsync("Claim", new CallMeter(), CancellationToken.None, sampleIndex: 2);
+
+        // Depth 1 samples (temperature 1.0): index 2. Depth 2 and negations are greedy: index 0.
+        Assert.Equal(2, model.Generations.Count(g => g.SampleIndex == 2));
+        Assert.All(model.Generations.Where(g => g.SampleIndex == 2), g => Assert.Equal("Claim", g.Subject));
+        Assert.Equal(12 + 19, model.Generations.Count(g => g.SampleIndex == 0));
+    }
+
+    [Fact]
     public async Task BuildAsync_IntegralExplanation_IsNotExpanded()
     {
         var model = new ScriptedModel();

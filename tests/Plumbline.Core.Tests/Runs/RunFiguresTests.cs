@@ -81,7 +81,7 @@ public sealed class RunFiguresTests
         var started = new DateTimeOffset(2025, 1, 2, 3, 4, 5, TimeSpan.Zero);
         var settings = RunSettings.From(CoherenceOptions.Default, "scripted", "nli", "exhaustive", seed: null);
         var tree = new ExplanationTree([new Statement(0, "C", "Not C", true, 0, null, null, 0.6, 0.3, Integrity.IntegralTrue, 2.0 / 3, true)]);
-        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), ["belief: #0"], [0], 1000);
+        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), [ClauseOrigin.Belief(0)], [0], 1000);
         var report = RunReport.Create("0.1.0", settings, started, started.AddSeconds(3), [Verdicts[0] with { Tree = tree, Problem = problem }, Verdicts[4]]);
 
         var back = JsonSerializer.Deserialize<RunReport>(JsonSerializer.Serialize(report))!;
@@ -98,7 +98,7 @@ public sealed class RunFiguresTests
     public void Serialize_Verdict_LeavesOutProblemAndDerivedViews()
     {
         var tree = new ExplanationTree([new Statement(0, "C", "Not C", true, 0, null, null, 0.6, 0.3, Integrity.IntegralTrue, 2.0 / 3, true)]);
-        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), ["belief: #0"], [0], 1000);
+        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), [ClauseOrigin.Belief(0)], [0], 1000);
         var verdict = Verdicts[0] with { Tree = tree, Problem = problem };
 
         var json = JsonSerializer.Serialize(verdict);

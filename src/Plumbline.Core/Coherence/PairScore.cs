@@ -1,0 +1,7 @@
+using Plumbline.Core.Entailment;
+
+namespace Plumbline.Core.Coherence;
+
+/// <summary>The NLI scores of one ordered statement pair: <see cref="From"/> as premise, <see cref="To"/> as hypothesis.</summary>
+/// <remarks>The pair and its scores travel together, so no reader depends on two lists sharing an order.</remarks>
+public sealed record PairScore(int From, int To, EntailmentScores Scores);
