@@ -8,7 +8,7 @@ namespace Plumbline.LocalModel;
 
 /// <summary>
 /// One sampling seed per request, derived from the run's seed and everything the request says (prompt,
-/// decoding, count). Requests of a run arrive in an order that depends on timing; seeding each from its own
+/// decoding, count, sample index). Requests of a run arrive in an order that depends on timing; seeding each from its own
 /// content makes every request's samples the same in every run with the same seed.
 /// </summary>
 internal static class SamplingSeed
@@ -21,7 +21,8 @@ internal static class SamplingSeed
             .Append(request.Decoding.Temperature.ToString("R", CultureInfo.InvariantCulture)).Append('\0')
             .Append(request.Decoding.TopP.ToString("R", CultureInfo.InvariantCulture)).Append('\0')
             .Append(request.Decoding.MaxTokens.ToString(CultureInfo.InvariantCulture)).Append('\0')
-            .Append(request.Count.ToString(CultureInfo.InvariantCulture));
+            .Append(request.Count.ToString(CultureInfo.InvariantCulture)).Append('\0')
+            .Append(request.SampleIndex.ToString(CultureInfo.InvariantCulture));
         foreach (var stop in request.Decoding.Stop)
         {
             text.Append('\0').Append(stop);

@@ -79,6 +79,7 @@ public sealed class SamplingSeedTests
         Assert.NotEqual(seed, SamplingSeed.For(8, Request("Q: x")));
         Assert.NotEqual(seed, SamplingSeed.For(7, Request("Q: y")));
         Assert.NotEqual(seed, SamplingSeed.For(7, Request("Q: x", topP: 0.9)));
+        Assert.NotEqual(seed, SamplingSeed.For(7, Request("Q: x") with { SampleIndex = 1 }));
         Assert.True(seed >= 0);
     }
 }

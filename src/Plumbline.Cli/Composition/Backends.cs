@@ -1,6 +1,7 @@
 using Plumbline.Cli.Options;
 using Plumbline.Core.Language;
 using Plumbline.Core.MaxSat;
+using Plumbline.LocalModel;
 using Plumbline.Models.Recording;
 using Plumbline.Nli;
 using Plumbline.Reports;
@@ -33,6 +34,7 @@ internal static class Backends
     /// <summary>Opens the language model a <c>--model</c> value names, reading and validating it fully now.</summary>
     /// <exception cref="UsageException">The source's file does not exist.</exception>
     /// <exception cref="RecordingFormatException">The recording has a malformed line.</exception>
+    /// <exception cref="LocalModelException">The local model folder cannot be used.</exception>
     public static async Task<ILanguageModel> OpenModelAsync(ModelSource source, string promptVersion, CancellationToken cancellationToken)
     {
         switch (source)
@@ -44,6 +46,8 @@ internal static class Backends
                 }
 
                 return await RecordingLanguageModel.LoadAsync(recording.Path, promptVersion, cancellationToken);
+            case LocalModelSource local:
+                return LocalLanguageModel.Open(local.Directory, new LocalModelOptions(Threads: local.Threads, Seed: local.Seed));
             default:
                 throw new UsageException($"{ModelSource.OptionName}: {source} is not supported");
         }

@@ -25,10 +25,11 @@ internal static class JudgeComposition
             new ReportOptions(Colour: context.ColourTerminal && settings.Output.Path is null));
         var export = settings.ExportWcnfDirectory is { } folder ? WcnfExport.Open(folder) : null;
         var model = await Backends.OpenModelAsync(settings.Model, settings.Engine.PromptVersion, cancellationToken);
+        await using var ownedModel = model as IAsyncDisposable;
         using var scorer = Backends.OpenScorer(settings.NliModelDirectory);
         var solver = Backends.CreateClaimSolver();
         var engine = new CoherenceEngine(model, scorer, solver, settings.Engine, Backends.Time);
-        var runSettings = RunSettings.From(settings.Engine, model.Describe, scorer.Describe, solver.Describe, seed: null);
+        var runSettings = RunSettings.From(settings.Engine, model.Describe, scorer.Describe, solver.Describe, settings.Seed);
 
         var outcome = await new JudgeRun(engine, runSettings, Backends.Time, export, context.Error).RunAsync(claims, cancellationToken);
 

@@ -9,12 +9,14 @@ namespace Plumbline.Cli.Options;
 /// <param name="Engine">The engine's settings.</param>
 /// <param name="ExportWcnfDirectory">Folder for one WCNF file per judged claim; null for none.</param>
 /// <param name="Output">Report format and destination.</param>
+/// <param name="Seed">The sampling seed the user gave, for the report; null for none.</param>
 internal sealed record JudgeSettings(
     ModelSource Model,
     string NliModelDirectory,
     CoherenceOptions Engine,
     string? ExportWcnfDirectory,
-    OutputSettings Output);
+    OutputSettings Output,
+    int? Seed = null);
 
 /// <summary>The report's format and where it goes; a null <paramref name="Path"/> is standard output.</summary>
 internal sealed record OutputSettings(string Format, string? Path);
