@@ -7,13 +7,15 @@ namespace Plumbline.Nli;
 /// <param name="Name">Model name shown in reports.</param>
 /// <param name="Architecture">Encoder family as written in the file (bert, roberta, deberta, ...).</param>
 /// <param name="Tokenizer">Which tokenizer the vocabulary files call for.</param>
-/// <param name="VocabularyFile">Full path of vocab.txt (WordPiece) or vocab.json (byte-level BPE).</param>
+/// <param name="VocabularyFile">Full path of vocab.txt (WordPiece), vocab.json (byte-level BPE) or the SentencePiece model file.</param>
 /// <param name="MergesFile">Full path of merges.txt for byte-level BPE; null for WordPiece.</param>
 /// <param name="LowerCase">Whether text is lower-cased (and, for WordPiece, stripped of accents) before tokenising.</param>
 /// <param name="MaxLength">Most tokens per pair, special tokens included; longer pairs are truncated.</param>
 /// <param name="Labels">The model's output classes, in output order.</param>
 /// <param name="OutputName">Graph output holding the logits; null means the first output.</param>
 /// <param name="SourceFile">The file these facts were read from.</param>
+/// <param name="VocabularySize">Rows of the model's token embedding table (config.json vocab_size), when known.</param>
+/// <param name="TypeVocabularySize">Rows of its segment embedding table (config.json type_vocab_size), when known.</param>
 public sealed record NliModelCard(
     string Name,
     string Architecture,
@@ -24,4 +26,6 @@ public sealed record NliModelCard(
     int MaxLength,
     IReadOnlyList<string> Labels,
     string? OutputName,
-    string SourceFile);
+    string SourceFile,
+    long? VocabularySize = null,
+    long? TypeVocabularySize = null);

@@ -167,16 +167,7 @@ public sealed record RequestFingerprint
         }
     }
 
-    private static void Field(StringBuilder json, string name, bool first = false)
-    {
-        if (!first)
-        {
-            json.Append(',');
-        }
-
-        Text(json, name);
-        json.Append(':');
-    }
+    private static void Field(StringBuilder json, string name, bool first = false) => CanonicalJsonWriter.Field(json, name, first);
 
     private static void Real(StringBuilder json, double value, string name)
     {
@@ -188,36 +179,5 @@ public sealed record RequestFingerprint
         json.Append(FormatReal(value));
     }
 
-    // Escapes only the quote, the backslash and control characters, as JSON requires; everything
-    // else stays as it is, so the hashed bytes do not depend on an encoder's notion of "safe" text.
-    private static void Text(StringBuilder json, string value)
-    {
-        json.Append('"');
-        foreach (var c in value)
-        {
-            switch (c)
-            {
-                case '"': json.Append("\\\""); break;
-                case '\\': json.Append("\\\\"); break;
-                case '\b': json.Append("\\b"); break;
-                case '\f': json.Append("\\f"); break;
-                case '\n': json.Append("\\n"); break;
-                case '\r': json.Append("\\r"); break;
-                case '\t': json.Append("\\t"); break;
-                default:
-                    if (c < 0x20)
-                    {
-                        json.Append("\\u").Append(((int)c).ToString("x4", CultureInfo.InvariantCulture));
-                    }
-                    else
-                    {
-                        json.Append(c);
-                    }
-
-                    break;
-            }
-        }
-
-        json.Append('"');
-    }
+    private static void Text(StringBuilder json, string value) => CanonicalJsonWriter.Text(json, value);
 }

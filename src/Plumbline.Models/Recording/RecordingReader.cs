@@ -1,5 +1,6 @@
 using System.Text;
 using System.Text.Json;
+using Plumbline.Core.Coherence;
 using Plumbline.Core.Language;
 
 namespace Plumbline.Models.Recording;
@@ -50,6 +51,11 @@ internal static class RecordingReader
 
         return entries;
     }
+
+    /// <summary>Parses and validates one line, as <see cref="ReadAsync"/> does for each line of a file.</summary>
+    /// <exception cref="RecordingFormatException">The line is malformed.</exception>
+    public static RecordedEntry ParseLine(string file, int line, string promptVersion, string text) =>
+        new LineParser(file, line, promptVersion).Parse(text);
 
     /// <summary>What a request is about, without its settings: lets a failed lookup point at a
     /// line that holds the same question asked with other settings.</summary>
@@ -129,9 +135,10 @@ internal static class RecordingReader
             }
 
             var result = new GenerationResult(texts, ReadUsage(response));
+            var asked = new GenerationRequest(purpose, subject, answer, PromptBook.Render(purpose, subject, answer), decoding, count, sample);
             return new RecordedEntry(fingerprint, line,
                 TopicOf(RequestFingerprint.GenerateKind, purposeName, subject, answer),
-                result, null, RecordingLine.Response(result));
+                result, null, RecordingLine.Response(result), asked, null);
         }
 
         private RecordedEntry ParseAnswer(JsonElement root, JsonElement request)
@@ -170,7 +177,7 @@ internal static class RecordingReader
                 : AnswerProbabilities.FromRaw(pTrue, pFalse, estimated, usage);
             return new RecordedEntry(fingerprint, line,
                 TopicOf(RequestFingerprint.AnswerKind, "", statement, null),
-                null, probabilities, RecordingLine.Response(probabilities));
+                null, probabilities, RecordingLine.Response(probabilities), null, new AnswerRequest(statement, PromptBook.Answer(statement)));
         }
 
         private string RequirePromptVersion(JsonElement request)
