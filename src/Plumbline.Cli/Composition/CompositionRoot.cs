@@ -7,6 +7,7 @@ using Plumbline.Core.Entailment;
 using Plumbline.Core.Language;
 using Plumbline.Core.MaxSat;
 using Plumbline.Core.Runs;
+using Plumbline.LocalModel;
 using Plumbline.Models.Recording;
 using Plumbline.Nli;
 using Plumbline.Reports;
@@ -85,7 +86,7 @@ internal sealed class CompositionRoot
             {
                 var solver = CreateClaimSolver();
                 var engine = new CoherenceEngine(model, scorer, solver, settings.Engine, Time);
-                var runSettings = RunSettings.From(settings.Engine, model.Describe, scorer.Describe, solver.Describe, seed: null);
+                var runSettings = RunSettings.From(settings.Engine, model.Describe, scorer.Describe, solver.Describe, settings.Seed);
                 var run = new ClaimRun(engine, runSettings, Time, new RunOptions(
                     ToolVersion.Current,
                     settings.InFlight,
@@ -160,6 +161,7 @@ internal sealed class CompositionRoot
 
     /// <exception cref="UsageException">The source's file does not exist or the kind is not supported.</exception>
     /// <exception cref="RecordingFormatException">The recording has a malformed line.</exception>
+    /// <exception cref="LocalModelException">The local model folder cannot be used.</exception>
     private static async Task<ILanguageModel> OpenModelAsync(ModelSource source, string promptVersion, CancellationToken cancellationToken)
     {
         switch (source)
@@ -171,6 +173,8 @@ internal sealed class CompositionRoot
                 }
 
                 return await RecordingLanguageModel.LoadAsync(recording.Path, promptVersion, cancellationToken);
+            case LocalModelSource local:
+                return LocalLanguageModel.Open(local.Directory, new LocalModelOptions(Threads: local.Threads, Seed: local.Seed));
             default:
                 throw new UsageException($"{ModelSource.OptionName}: {source} is not supported");
         }

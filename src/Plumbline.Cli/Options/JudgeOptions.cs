@@ -13,8 +13,20 @@ internal sealed class JudgeOptions
 {
     private readonly Option<string?> model = new(ModelSource.OptionName)
     {
-        Description = "Where the model's answers come from: recording:PATH replays a recording file.",
+        Description = "Where the model's answers come from: recording:PATH replays a recording file; onnx:DIR runs a decoder-only ONNX model folder in this process.",
         HelpName = "SOURCE",
+    };
+
+    private readonly Option<int?> seed = new("--seed")
+    {
+        Description = "Sampling seed: the same seed gives the same sampled explanations (onnx:DIR).",
+        HelpName = "N",
+    };
+
+    private readonly Option<int?> modelThreads = new("--model-threads")
+    {
+        Description = "CPU threads for each run of a local model (onnx:DIR); default: every core.",
+        HelpName = "N",
     };
 
     private readonly Option<string?> negation = new("--negation")
@@ -111,6 +123,8 @@ internal sealed class JudgeOptions
     public void AddTo(Command command)
     {
         command.Options.Add(model);
+        command.Options.Add(seed);
+        command.Options.Add(modelThreads);
         command.Options.Add(NliModel);
         command.Options.Add(negation);
         command.Options.Add(weighting);
@@ -133,6 +147,21 @@ internal sealed class JudgeOptions
     public JudgeSettings Read(ParseResult parse)
     {
         var source = ModelSource.Parse(parse.GetValue(model));
+        var threads = parse.GetValue(modelThreads);
+        if (threads is < 1)
+        {
+            throw new UsageException("--model-threads: give 1 or more");
+        }
+
+        if (source is LocalModelSource local)
+        {
+            source = local with { Threads = threads, Seed = parse.GetValue(seed) };
+        }
+        else if (threads is not null)
+        {
+            throw new UsageException("--model-threads: only a local model (--model onnx:DIR) runs here");
+        }
+
         var engine = CoherenceOptions.Default with
         {
             Negation = EngineChoices.NegationOf(parse.GetValue(negation)!),
@@ -157,6 +186,7 @@ internal sealed class JudgeOptions
             StrictInput = parse.GetValue(strictInput),
             ClaimsFormat = claimsFormat,
             JunitFailures = JunitFailuresOf(parse.GetValue(junitFailures)!),
+            Seed = parse.GetValue(seed),
         };
     }
 

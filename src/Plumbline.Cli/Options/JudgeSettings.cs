@@ -23,6 +23,9 @@ internal sealed record JudgeSettings(
     {
     }
 
+    /// <summary>The sampling seed the user gave, for the report; null for none.</summary>
+    public int? Seed { get; init; }
+
     /// <summary>List every statement pair in the reports, not only the linked ones.</summary>
     public bool Verbose { get; init; }
 
