@@ -1,4 +1,6 @@
 using Plumbline.Core.Inputs;
+using Plumbline.Core.Language.Sources;
+using Plumbline.Models.Cache;
 using Plumbline.Nli;
 
 namespace Plumbline.Cli;
@@ -36,7 +38,7 @@ internal static class Guarded
     /// <summary>The message for an error the user can fix, or null for anything else.</summary>
     internal static string? UsageMessage(Exception e) => e switch
     {
-        UsageException or InputFormatException or NliModelException => e.Message,
+        UsageException or InputFormatException or NliModelException or ModelSourceException or ResponseCacheException => e.Message,
         FileNotFoundException notFound => $"{notFound.FileName ?? "file"}: file not found",
         DirectoryNotFoundException or UnauthorizedAccessException or IOException => e.Message,
         _ => null,

@@ -1,7 +1,5 @@
 using Plumbline.Cli.Options;
-using Plumbline.Core.Language;
 using Plumbline.Core.MaxSat;
-using Plumbline.Models.Recording;
 using Plumbline.Nli;
 using Plumbline.Reports;
 using Plumbline.Solver;
@@ -30,24 +28,8 @@ internal static class Backends
     public static IMaxSatSolver CreateClaimSolver() =>
         new CpSatMaxSatSolver(CpSatOptions.Default with { Workers = 1 }, Time);
 
-    /// <summary>Opens the language model a <c>--model</c> value names, reading and validating it fully now.</summary>
-    /// <exception cref="UsageException">The source's file does not exist.</exception>
-    /// <exception cref="RecordingFormatException">The recording has a malformed line.</exception>
-    public static async Task<ILanguageModel> OpenModelAsync(ModelSource source, string promptVersion, CancellationToken cancellationToken)
-    {
-        switch (source)
-        {
-            case RecordingModelSource recording:
-                if (!File.Exists(recording.Path))
-                {
-                    throw new UsageException($"{ModelSource.OptionName}: recording file '{recording.Path}' not found");
-                }
-
-                return await RecordingLanguageModel.LoadAsync(recording.Path, promptVersion, cancellationToken);
-            default:
-                throw new UsageException($"{ModelSource.OptionName}: {source} is not supported");
-        }
-    }
+    /// <summary>The process environment, where the API key and extra header values are read.</summary>
+    public static Func<string, string?> Environment => System.Environment.GetEnvironmentVariable;
 
     /// <summary>Loads the ONNX NLI model of a folder.</summary>
     /// <exception cref="UsageException">The folder does not exist.</exception>

@@ -9,7 +9,8 @@ namespace Plumbline.Cli.Composition;
 
 /// <summary>
 /// Wires a judging run from validated settings and carries it out: cheap checks and loads first (output
-/// destination, export folder, recording, NLI model), so that a set-up error costs nothing; then the run;
+/// destination, export folder, NLI model, then the model source and the response cache), so that a set-up
+/// error costs nothing; then the run;
 /// then the report, which is written whatever stopped the run.
 /// </summary>
 internal static class JudgeComposition
@@ -24,13 +25,24 @@ internal static class JudgeComposition
             settings.Output.Format,
             new ReportOptions(Colour: context.ColourTerminal && settings.Output.Path is null));
         var export = settings.ExportWcnfDirectory is { } folder ? WcnfExport.Open(folder) : null;
-        var model = await Backends.OpenModelAsync(settings.Model, settings.Engine.PromptVersion, cancellationToken);
         using var scorer = Backends.OpenScorer(settings.NliModelDirectory);
+        // Last of the checks, because an endpoint's check is a (one-token) request.
+        await using var model = await ModelComposition.OpenAsync(
+            settings.Model, settings.Engine.PromptVersion, Backends.Environment, Backends.Time, cancellationToken);
+        foreach (var notice in model.Notices)
+        {
+            await context.Error.WriteLineAsync(CliErrors.Line("note: " + notice));
+        }
+
         var solver = Backends.CreateClaimSolver();
-        var engine = new CoherenceEngine(model, scorer, solver, settings.Engine, Backends.Time);
-        var runSettings = RunSettings.From(settings.Engine, model.Describe, scorer.Describe, solver.Describe, seed: null);
+        var engine = new CoherenceEngine(model.Model, scorer, solver, settings.Engine, Backends.Time);
+        var runSettings = RunSettings.From(settings.Engine, model.Model.Describe, scorer.Describe, solver.Describe, settings.Model.Http.Seed);
 
         var outcome = await new JudgeRun(engine, runSettings, Backends.Time, export, context.Error).RunAsync(claims, cancellationToken);
+        if (model.CacheSummary() is { } cacheLine)
+        {
+            await context.Error.WriteLineAsync(CliErrors.Line(cacheLine));
+        }
 
         // The run is over (or was stopped); its report must not be lost to the same cancellation.
         await ResultDestination.WriteReportAsync(writer, outcome.Report, settings.Output.Path, context.Output, CancellationToken.None);

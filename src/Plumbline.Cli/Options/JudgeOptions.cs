@@ -6,12 +6,6 @@ namespace Plumbline.Cli.Options;
 /// <summary>The options <c>check</c> and <c>sweep</c> share: model source, NLI model, engine settings, export and output.</summary>
 internal sealed class JudgeOptions
 {
-    private readonly Option<string?> model = new(ModelSource.OptionName)
-    {
-        Description = "Where the model's answers come from: recording:PATH replays a recording file.",
-        HelpName = "SOURCE",
-    };
-
     private readonly Option<string?> negation = new("--negation")
     {
         Description = "How statements are negated for the integrity test: model (the model rewrites them) or prefix (\"It is not true that ...\").",
@@ -42,6 +36,7 @@ internal sealed class JudgeOptions
     public JudgeOptions(IReadOnlyList<string> reportFormats)
     {
         NliModel = NliModelOption.Create();
+        Model = new ModelOptions();
         Output = new OutputOptions(reportFormats);
         negation.AcceptOnlyFromAmong(EngineChoices.Negations);
         weighting.AcceptOnlyFromAmong(EngineChoices.Weightings);
@@ -50,11 +45,13 @@ internal sealed class JudgeOptions
 
     public Option<string?> NliModel { get; }
 
+    public ModelOptions Model { get; }
+
     public OutputOptions Output { get; }
 
     public void AddTo(Command command)
     {
-        command.Options.Add(model);
+        Model.AddTo(command);
         command.Options.Add(NliModel);
         command.Options.Add(negation);
         command.Options.Add(weighting);
@@ -66,7 +63,7 @@ internal sealed class JudgeOptions
     /// <exception cref="UsageException">A value cannot work (unknown model source, output folder missing ...).</exception>
     public JudgeSettings Read(ParseResult parse)
     {
-        var source = ModelSource.Parse(parse.GetValue(model));
+        var source = Model.Read(parse);
         var output = Output.Read(parse);
         var engine = CoherenceOptions.Default with
         {

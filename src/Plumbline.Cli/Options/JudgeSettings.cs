@@ -4,13 +4,13 @@ using Plumbline.Core.Trees;
 namespace Plumbline.Cli.Options;
 
 /// <summary>What <c>check</c> and <c>sweep</c> were asked to do, validated.</summary>
-/// <param name="Model">Where the model's answers come from.</param>
+/// <param name="Model">Where the model's answers come from, and how it is called.</param>
 /// <param name="NliModelDirectory">The NLI model's folder.</param>
 /// <param name="Engine">The engine's settings.</param>
 /// <param name="ExportWcnfDirectory">Folder for one WCNF file per judged claim; null for none.</param>
 /// <param name="Output">Report format and destination.</param>
 internal sealed record JudgeSettings(
-    ModelSource Model,
+    ModelSettings Model,
     string NliModelDirectory,
     CoherenceOptions Engine,
     string? ExportWcnfDirectory,

@@ -23,8 +23,21 @@ internal sealed class JudgeRun(
         string? stopped = null;
         try
         {
-            await foreach (var verdict in engine.JudgeAllAsync(claims, cancellationToken))
+            await foreach (var claim in claims.WithCancellation(cancellationToken))
             {
+                Verdict verdict;
+                try
+                {
+                    verdict = await engine.JudgeAsync(claim, cancellationToken);
+                }
+                catch (RunHaltedException halt)
+                {
+                    // A halt (a spent budget) stops the run; the claim at hand and those after it are not judged.
+                    var unjudged = await UnjudgedAsync(claim, claims);
+                    stopped = $"{halt.Message}; stopped after {verdicts.Count} claim(s); not judged: {unjudged}";
+                    break;
+                }
+
                 verdicts.Add(verdict);
                 if (verdict.Error is { } reason)
                 {
@@ -50,6 +63,35 @@ internal sealed class JudgeRun(
 
         var report = RunReport.Create(ToolVersion.Current, settings, started, time.GetUtcNow(), verdicts);
         return new JudgeOutcome(report, stopped);
+    }
+
+    /// <summary>The ids of the claim at hand and of every claim not yet read (reading costs no model call),
+    /// at most 20 named, the rest counted.</summary>
+    private static async Task<string> UnjudgedAsync(Claim current, IAsyncEnumerable<Claim> claims)
+    {
+        const int Named = 20;
+        var ids = new List<string> { current.Id };
+        var more = 0;
+        try
+        {
+            await foreach (var claim in claims)
+            {
+                if (ids.Count < Named)
+                {
+                    ids.Add(claim.Id);
+                }
+                else
+                {
+                    more++;
+                }
+            }
+        }
+        catch (ClaimFileException)
+        {
+            // The rest of the file is unreadable; what was listed is what is known.
+        }
+
+        return string.Join(", ", ids) + (more > 0 ? $" and {more} more" : "");
     }
 }
 

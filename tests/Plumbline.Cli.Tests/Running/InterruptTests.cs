@@ -24,7 +24,7 @@ public sealed class InterruptTests
         using var folder = new TempDirectory();
         var recording = await Recordings.WriteAsync(folder.File("rec.jsonl"), (TestClaims.Bats, 0.9), (TestClaims.Sun, 0.2));
         var settings = new JudgeSettings(
-            new RecordingModelSource(recording),
+            ModelSettingsFor.Recording(recording),
             NliModelOption.ShippedDirectory,
             CoherenceOptions.Default,
             ExportWcnfDirectory: null,
