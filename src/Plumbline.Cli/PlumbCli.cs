@@ -16,6 +16,7 @@ internal static class PlumbCli
         root.Subcommands.Add(SweepCommand.Create(context));
         root.Subcommands.Add(SolveCommand.Create(context));
         root.Subcommands.Add(NliCommand.Create(context));
+        root.Subcommands.Add(CacheCommand.Create(context));
         return root;
     }
 

@@ -35,8 +35,9 @@ internal sealed class CacheOptions
     /// <exception cref="UsageException">Both --no-cache and --refresh-cache.</exception>
     public CacheSettings Read(ParseResult parse)
     {
-        var off = parse.GetValue(bypass);
-        var again = parse.GetValue(refresh);
+        var runModes = parse.CommandResult.Command.Options.Contains(bypass);
+        var off = runModes && parse.GetValue(bypass);
+        var again = runModes && parse.GetValue(refresh);
         if (off && again)
         {
             throw new UsageException("--no-cache and --refresh-cache: choose one");

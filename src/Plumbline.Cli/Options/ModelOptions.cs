@@ -68,6 +68,13 @@ internal sealed class ModelOptions
         DefaultValueFactory = _ => Models.Http.CallResilienceOptions.Default.MaxRetries,
     };
 
+    private readonly Option<double> retryDelay = new("--retry-delay")
+    {
+        Description = "Seconds before the first retry; each further retry waits about twice as long (with jitter), unless the endpoint says (Retry-After).",
+        HelpName = "SECONDS",
+        DefaultValueFactory = _ => Models.Http.CallResilienceOptions.Default.BaseDelay.TotalSeconds,
+    };
+
     private readonly Option<double> callTimeout = new("--call-timeout")
     {
         Description = "Seconds one request may take before it is retried.",
@@ -123,6 +130,7 @@ internal sealed class ModelOptions
                 r.AddError("--retries: must be 0 or more");
             }
         });
+        retryDelay.CustomParser = r => NumberParsing.Parse(r, "--retry-delay", "a number of seconds (0 or more)", v => v >= 0);
         callTimeout.CustomParser = r => NumberParsing.Parse(r, "--call-timeout", "a number of seconds above 0", v => v > 0);
         headers.Validators.Add(r =>
         {
@@ -152,6 +160,7 @@ internal sealed class ModelOptions
             command.Options.Add(keyVariable);
             command.Options.Add(headers);
             command.Options.Add(retries);
+            command.Options.Add(retryDelay);
             command.Options.Add(callTimeout);
             command.Options.Add(requestsPerMinute);
             command.Options.Add(tokensPerMinute);
@@ -169,16 +178,17 @@ internal sealed class ModelOptions
         var route = parse.GetValue(api) == "completions" ? HttpApi.Completions : HttpApi.Chat;
         var calls = Models.Http.CallResilienceOptions.Default with
         {
-            MaxRetries = parse.GetValue(retries),
-            AttemptTimeout = TimeSpan.FromSeconds(parse.GetValue(callTimeout)),
-            RequestsPerMinute = parse.GetValue(requestsPerMinute),
-            TokensPerMinute = parse.GetValue(tokensPerMinute),
+            MaxRetries = Given(parse, retries),
+            BaseDelay = TimeSpan.FromSeconds(Given(parse, retryDelay)),
+            AttemptTimeout = TimeSpan.FromSeconds(Given(parse, callTimeout)),
+            RequestsPerMinute = Given(parse, requestsPerMinute),
+            TokensPerMinute = Given(parse, tokensPerMinute),
         };
         var http = new HttpModelOptions(
             name ?? "",
             route,
-            parse.GetValue(keyVariable) ?? HttpModelOptions.DefaultKeyVariable,
-            [.. (parse.GetValue(headers) ?? []).Select(h => HeaderOf(h)!)],
+            Given(parse, keyVariable) ?? HttpModelOptions.DefaultKeyVariable,
+            [.. (Given(parse, headers) ?? []).Select(h => HeaderOf(h)!)],
             parse.GetValue(seed),
             // The legacy completions route lists at most 5 alternatives on some servers; 5 still holds both answers.
             TopAlternatives: route == HttpApi.Chat ? 20 : 5,
@@ -187,11 +197,15 @@ internal sealed class ModelOptions
         return new ModelSettings(
             parse.GetValue(model),
             http,
-            parse.GetValue(concurrentCalls),
-            parse.GetValue(maxCalls),
-            parse.GetValue(maxTokens),
+            Given(parse, concurrentCalls),
+            Given(parse, maxCalls),
+            Given(parse, maxTokens),
             Cache.Read(parse));
     }
+
+    /// <summary>The option's value, or its default when the command does not carry it (cache import takes only the identity's options).</summary>
+    private static T? Given<T>(ParseResult parse, Option<T> option) =>
+        parse.CommandResult.Command.Options.Contains(option) ? parse.GetValue(option) : option.DefaultValueFactory is { } make ? make(null!) : default;
 
     private static HeaderFromVariable? HeaderOf(string text)
     {

@@ -23,8 +23,10 @@ internal sealed class JudgeRun(
         string? stopped = null;
         try
         {
-            await foreach (var claim in claims.WithCancellation(cancellationToken))
+            await using var reading = claims.GetAsyncEnumerator(cancellationToken);
+            while (await reading.MoveNextAsync())
             {
+                var claim = reading.Current;
                 Verdict verdict;
                 try
                 {
@@ -33,7 +35,7 @@ internal sealed class JudgeRun(
                 catch (RunHaltedException halt)
                 {
                     // A halt (a spent budget) stops the run; the claim at hand and those after it are not judged.
-                    var unjudged = await UnjudgedAsync(claim, claims);
+                    var unjudged = await UnjudgedAsync(claim, reading);
                     stopped = $"{halt.Message}; stopped after {verdicts.Count} claim(s); not judged: {unjudged}";
                     break;
                 }
@@ -67,18 +69,18 @@ internal sealed class JudgeRun(
 
     /// <summary>The ids of the claim at hand and of every claim not yet read (reading costs no model call),
     /// at most 20 named, the rest counted.</summary>
-    private static async Task<string> UnjudgedAsync(Claim current, IAsyncEnumerable<Claim> claims)
+    private static async Task<string> UnjudgedAsync(Claim current, IAsyncEnumerator<Claim> rest)
     {
         const int Named = 20;
         var ids = new List<string> { current.Id };
         var more = 0;
         try
         {
-            await foreach (var claim in claims)
+            while (await rest.MoveNextAsync())
             {
                 if (ids.Count < Named)
                 {
-                    ids.Add(claim.Id);
+                    ids.Add(rest.Current.Id);
                 }
                 else
                 {
