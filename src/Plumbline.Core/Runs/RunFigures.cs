@@ -42,6 +42,27 @@ public sealed record RunFigures(
     TokenUsage Tokens,
     TimeSpan WallTime)
 {
+    /// <summary>Paired direct answer (p(claim) against p(negated claim)) equals gold; null without labelled claims.</summary>
+    public Proportion? PairedDirectAccuracy { get; init; }
+
+    /// <summary>Mean normalised margin of judged claims.</summary>
+    public double MeanNormalisedMargin { get; init; }
+
+    /// <summary>Mean share of sampled trees giving the majority answer, over judged claims; null when one tree per claim was judged.</summary>
+    public double? MeanStability { get; init; }
+
+    /// <summary>Judged claims whose sampled trees tied (no majority).</summary>
+    public int StabilityTies { get; init; }
+
+    /// <summary>Statement pairs read as entailment one way and contradiction the other, over all claims.</summary>
+    public int ConflictingPairs { get; init; }
+
+    /// <summary>Explanations dropped because they did not end a sentence, over all claims.</summary>
+    public int CutOffDiscarded { get; init; }
+
+    /// <summary>Claims whose answer probabilities were estimated by sampling rather than read from token probabilities.</summary>
+    public int EstimatedClaims { get; init; }
+
     /// <summary>The figures of a list of verdicts (a <see cref="RunTally"/> over them).</summary>
     public static RunFigures From(IEnumerable<Verdict> verdicts, TimeSpan wallTime)
     {

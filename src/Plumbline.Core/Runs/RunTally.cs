@@ -13,7 +13,8 @@ public sealed class RunTally
     private int claims, judged, settled, overturned, contested, failed, twoSided;
     private int labelled, directCorrect, coherentCorrect;
     private int entailmentLinks, contradictionLinks, modelCalls;
-    private double marginSum;
+    private double marginSum, normalisedMarginSum, stabilitySum;
+    private int pairedDirectCorrect, stabilityMeasured, stabilityTies, conflictingPairs, cutOffDiscarded, estimatedClaims;
     private TokenUsage tokens = TokenUsage.None;
 
     /// <summary>Claims added so far.</summary>
@@ -28,6 +29,9 @@ public sealed class RunTally
         claims++;
         modelCalls += verdict.ModelCalls;
         tokens += verdict.Tokens;
+        conflictingPairs += verdict.Conflicts.Count;
+        cutOffDiscarded += verdict.CutOffDiscarded;
+        estimatedClaims += verdict.ProbabilitiesEstimated ? 1 : 0;
         foreach (var link in verdict.Links)
         {
             if (link.Kind == EntailmentKind.Entailment)
@@ -58,6 +62,14 @@ public sealed class RunTally
 
         judged++;
         marginSum += verdict.Margin;
+        normalisedMarginSum += verdict.NormalisedMargin;
+        if (verdict.Stability is { } stability)
+        {
+            stabilityMeasured++;
+            stabilitySum += stability.Share;
+            stabilityTies += stability.Tied ? 1 : 0;
+        }
+
         if (verdict.TwoSided)
         {
             twoSided++;
@@ -68,6 +80,7 @@ public sealed class RunTally
             labelled++;
             directCorrect += verdict.DirectAnswer == gold ? 1 : 0;
             coherentCorrect += verdict.Answer == gold ? 1 : 0;
+            pairedDirectCorrect += verdict.PairedDirectAnswer == gold ? 1 : 0;
         }
     }
 
@@ -93,6 +106,15 @@ public sealed class RunTally
             ContradictionLinks: contradictionLinks,
             ModelCalls: modelCalls,
             Tokens: tokens,
-            WallTime: wallTime);
+            WallTime: wallTime)
+        {
+            PairedDirectAccuracy = labelled == 0 ? null : Proportion.Wilson(pairedDirectCorrect, labelled),
+            MeanNormalisedMargin = judged == 0 ? 0.0 : normalisedMarginSum / judged,
+            MeanStability = stabilityMeasured == 0 ? null : stabilitySum / stabilityMeasured,
+            StabilityTies = stabilityTies,
+            ConflictingPairs = conflictingPairs,
+            CutOffDiscarded = cutOffDiscarded,
+            EstimatedClaims = estimatedClaims,
+        };
     }
 }

@@ -12,9 +12,11 @@ namespace Plumbline.Core.Tests.Coherence;
 
 public sealed class CoherenceEngineTests
 {
+    // The scripted texts ("A", "B") are not sentences; these tests are not about the cut-off rule.
     private static readonly CoherenceOptions OneLevel = CoherenceOptions.Default with
     {
         Shape = new TreeShape([new LevelShape(1, Decoding.Greedy())]),
+        DiscardCutOff = false,
     };
 
     private static readonly Claim Claim = new("c1", "C");
@@ -80,6 +82,152 @@ public sealed class CoherenceEngineTests
             solver.Problems.Select(p => string.Join(' ', Assert.Single(p.Clauses, c => c.IsHard).Literals)));
         Assert.Equal(5, verdict.Problem!.Problem.Clauses.Count);
         Assert.DoesNotContain(verdict.Problem.Problem.Clauses, c => c.IsHard);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_HandBuiltExample_StatementValuesOfTheOptimum()
+    {
+        var (model, scorer) = Example(directPTrue: 0.7);
+
+        var verdict = await Engine(model, scorer).JudgeAsync(Claim, CancellationToken.None);
+
+        // The optimum found by hand above: claim false, A false, B true.
+        Assert.Equal(new Dictionary<int, bool> { [0] = false, [1] = false, [2] = true }, verdict.Values);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_HandBuiltExample_NormalisedMarginIsMarginOverTotalClauseWeight()
+    {
+        var (model, scorer) = Example(directPTrue: 0.7);
+
+        var verdict = await Engine(model, scorer).JudgeAsync(Claim, CancellationToken.None);
+
+        // Total soft weight 800 + 900 + 3 x 1000 = 4700; margin 900 - 800 = 100, so 100 / 4700.
+        Assert.Equal(100.0 / 4700, verdict.NormalisedMargin, 12);
+        Assert.Equal(0.1, verdict.Margin, 12);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_PrunedStatement_HasNoValue()
+    {
+        var (model, scorer) = Example(directPTrue: 0.7);
+        model.Explanations[("C", true)] = ["A", "Wobbly"];
+        model.PTrue["Wobbly"] = 0.6;
+        model.PTrue["Not: Wobbly"] = 0.6;
+
+        var verdict = await Engine(model, scorer, OneLevel with { Shape = new TreeShape([new LevelShape(2, Decoding.Greedy())]) })
+            .JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Equal(["C", "A", "Wobbly", "B"], verdict.Tree!.Statements.Select(s => s.Text));
+        Assert.Equal(new Dictionary<int, bool> { [0] = false, [1] = false, [3] = true }, verdict.Values);
+    }
+
+    [Theory]
+    // p(C) 0.45 and p(not C) 0.3: the plain direct answer is false, the paired one true. The optimum
+    // (claim false, as in the example) overturns the paired one and settles the plain one.
+    [InlineData(DirectAnswerRule.Plain, ClaimStatus.Settled)]
+    [InlineData(DirectAnswerRule.Paired, ClaimStatus.Overturned)]
+    public async Task JudgeAsync_DirectAnswerRule_StatusComparesWithTheChosenDirectAnswer(DirectAnswerRule rule, ClaimStatus expected)
+    {
+        var (model, scorer) = Example(directPTrue: 0.45);
+        model.PTrue["Not: C"] = 0.3;
+
+        var verdict = await Engine(model, scorer, OneLevel with { DirectAnswer = rule }).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Equal((false, false, true), (verdict.Answer, verdict.DirectAnswer, verdict.PairedDirectAnswer));
+        Assert.Equal(expected, verdict.Status);
+    }
+
+    /// <summary>
+    /// Three sampled trees of the claim "C" (not integral, direct answer false). Samples 0 and 1 explain
+    /// True with "A." (believed 0.9, entails C); sample 2 with "B." (believed 0.9, contradicts C).
+    /// Each tree alone: A's tree answers true (cost 0 against 900), B's answers false (0 against 900).
+    /// </summary>
+    private static (ScriptedModel Model, ScriptedScorer Scorer) Sampled(Func<int, string> textOfSample)
+    {
+        var model = new ScriptedModel
+        {
+            ExplainWith = r => r.Answer == true ? [textOfSample(r.SampleIndex)] : [],
+        };
+        model.PTrue["C"] = 0.5;
+        model.PTrue["Not: C"] = 0.5;
+        foreach (var text in new[] { "A.", "B." })
+        {
+            model.PTrue[text] = 0.9;
+            model.PTrue["Not: " + text] = 0.1;
+        }
+
+        var scorer = new ScriptedScorer();
+        scorer.Scores[("A.", "C")] = ScriptedScorer.Entails(0.9);
+        scorer.Scores[("B.", "C")] = ScriptedScorer.Contradicts(0.9);
+        return (model, scorer);
+    }
+
+    private static readonly CoherenceOptions SampledLevel = OneLevel with { Shape = new TreeShape([new LevelShape(1, Decoding.Sampling())]) };
+
+    [Fact]
+    public async Task JudgeAsync_ThreeSampledTreesTwoAgree_MajorityAnswerAndStabilityTwoThirds()
+    {
+        var (model, scorer) = Sampled(i => i < 2 ? "A." : "B.");
+
+        var verdict = await Engine(model, scorer, SampledLevel with { Samples = 3 }).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.True(verdict.Answer);
+        Assert.Equal(ClaimStatus.Overturned, verdict.Status);
+        Assert.Equal(new SampleAgreement(3, 2, Tied: false), verdict.Stability);
+        Assert.Equal(2.0 / 3, verdict.Stability!.Share, 12);
+        // The details are those of the first tree giving the majority answer: A's tree.
+        Assert.Equal(["C", "A."], verdict.Tree!.Statements.Select(s => s.Text));
+        Assert.Equal([0, 1, 2], model.Generations.Where(g => g.Purpose == GenerationPurpose.Abduction && g.Answer == true).Select(g => g.SampleIndex).Order());
+        // Each tree: root negation + 2 answers, 2 abductions, then 1 negation + 2 answers for its explanation.
+        Assert.Equal(3 * 8, verdict.ModelCalls);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_TwoSampledTreesDisagree_TieKeepsDirectAnswerAndIsContested()
+    {
+        var (model, scorer) = Sampled(i => i == 0 ? "A." : "B.");
+
+        var verdict = await Engine(model, scorer, SampledLevel with { Samples = 2 }).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.False(verdict.Answer);
+        Assert.Equal(ClaimStatus.Contested, verdict.Status);
+        Assert.Equal(new SampleAgreement(2, 1, Tied: true), verdict.Stability);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_OneSampledTreeFails_ClaimFailsNamingTheTree()
+    {
+        var (model, scorer) = Sampled(i => i == 1 ? "Unscripted." : "A.");
+
+        var verdict = await Engine(model, scorer, SampledLevel with { Samples = 3 }).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Equal(ClaimStatus.Failed, verdict.Status);
+        Assert.EndsWith("(sampled tree 2 of 3)", verdict.Error, StringComparison.Ordinal);
+        Assert.Equal(model.Generations.Count + model.Answers.Count, verdict.ModelCalls);
+    }
+
+    [Fact]
+    public async Task JudgeAsync_OneTree_NoStability()
+    {
+        var (model, scorer) = Sampled(_ => "A.");
+
+        var verdict = await Engine(model, scorer, SampledLevel).JudgeAsync(Claim, CancellationToken.None);
+
+        Assert.Null(verdict.Stability);
+        Assert.All(model.Generations, g => Assert.Equal(0, g.SampleIndex));
+    }
+
+    [Fact]
+    public void Constructor_InvalidSettings_ThrowsListingEveryProblem()
+    {
+        var (model, scorer) = Example(0.7);
+
+        var error = Assert.Throws<ArgumentException>(() => Engine(model, scorer, OneLevel with { Samples = 0, IntegrityGap = 1.5, LinkFloor = -0.1 }));
+
+        Assert.Contains("sampled trees", error.Message, StringComparison.Ordinal);
+        Assert.Contains("integrity gap", error.Message, StringComparison.Ordinal);
+        Assert.Contains("link floor", error.Message, StringComparison.Ordinal);
     }
 
     [Theory]
@@ -224,7 +372,7 @@ public sealed class CoherenceEngineTests
     {
         var model = ScriptedModel.Growing(s => s.StartsWith("Not: ", StringComparison.Ordinal) ? 0.3 : 0.6, TimeSpan.FromMilliseconds(40));
 
-        var verdict = await Engine(model, new ScriptedScorer(), CoherenceOptions.Default).JudgeAsync(Claim, CancellationToken.None);
+        var verdict = await Engine(model, new ScriptedScorer(), CoherenceOptions.Default with { DiscardCutOff = false }).JudgeAsync(Claim, CancellationToken.None);
 
         Assert.NotEqual(ClaimStatus.Failed, verdict.Status);
         Assert.True(model.MaxInFlight > 1, $"only {model.MaxInFlight} request in flight at a time");
