@@ -36,7 +36,7 @@ internal static class JudgeComposition
 
         var solver = Backends.CreateClaimSolver();
         var engine = new CoherenceEngine(model.Model, scorer, solver, settings.Engine, Backends.Time);
-        var runSettings = RunSettings.From(settings.Engine, model.Model.Describe, scorer.Describe, solver.Describe, settings.Model.Http.Seed);
+        var runSettings = RunSettings.From(settings.Engine, model.Model.Describe, scorer.Describe, solver.Describe, settings.Model.Seed);
 
         var outcome = await new JudgeRun(engine, runSettings, Backends.Time, export, context.Error).RunAsync(claims, cancellationToken);
         if (model.CacheSummary() is { } cacheLine)

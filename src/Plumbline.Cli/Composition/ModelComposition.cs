@@ -19,6 +19,7 @@ internal static class ModelComposition
     [
         new RecordingSourceKind(),
         new HttpSourceKind(settings.Http, environment, time),
+        new LocalSourceKind(settings.ModelThreads, settings.Seed),
     ]);
 
     /// <summary>Opens and checks the source (a file is read, an endpoint gets one small request), then the cache.</summary>

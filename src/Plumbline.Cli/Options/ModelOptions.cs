@@ -14,10 +14,14 @@ internal sealed class ModelOptions
 {
     public const int DefaultConcurrentCalls = 16;
 
+    /// <summary>How a local model folder is written as a source.</summary>
+    public const string LocalSourceKindPrefix = "onnx:";
+
     private readonly Option<string?> model = new("--model")
     {
         Description = "Where the model's answers come from: recording:PATH replays a recording file; an endpoint's base URL " +
-                      "(http://127.0.0.1:8080/v1) asks an OpenAI-compatible server (with --model-name).",
+                      "(http://127.0.0.1:8080/v1) asks an OpenAI-compatible server (with --model-name); onnx:DIR runs a " +
+                      "decoder-only ONNX model folder in this process.",
         HelpName = "SOURCE",
     };
 
@@ -50,7 +54,13 @@ internal sealed class ModelOptions
 
     private readonly Option<int?> seed = new("--seed")
     {
-        Description = "Sampling seed sent to the endpoint (and part of the cache key).",
+        Description = "Sampling seed: sent to an endpoint, or seeding a local model's sampling (and part of the cache key).",
+        HelpName = "N",
+    };
+
+    private readonly Option<int?> modelThreads = new("--model-threads")
+    {
+        Description = "CPU threads for each run of a local model (onnx:DIR); default: every core.",
         HelpName = "N",
     };
 
@@ -155,6 +165,7 @@ internal sealed class ModelOptions
         command.Options.Add(api);
         command.Options.Add(seed);
         command.Options.Add(votes);
+        command.Options.Add(modelThreads);
         if (judging)
         {
             command.Options.Add(keyVariable);
@@ -172,8 +183,21 @@ internal sealed class ModelOptions
         Cache.AddTo(command, judging);
     }
 
+    /// <exception cref="UsageException">--model-threads is below 1 or given for a source that is not a local model.</exception>
     public ModelSettings Read(ParseResult parse)
     {
+        var source = parse.GetValue(model);
+        var threads = parse.GetValue(modelThreads);
+        if (threads is < 1)
+        {
+            throw new UsageException("--model-threads: give 1 or more");
+        }
+
+        if (threads is not null && source?.StartsWith(LocalSourceKindPrefix, StringComparison.OrdinalIgnoreCase) != true)
+        {
+            throw new UsageException("--model-threads: only a local model (--model onnx:DIR) runs here");
+        }
+
         var name = parse.GetValue(modelName);
         var route = parse.GetValue(api) == "completions" ? HttpApi.Completions : HttpApi.Chat;
         var calls = Models.Http.CallResilienceOptions.Default with
@@ -195,7 +219,9 @@ internal sealed class ModelOptions
             Votes: parse.GetValue(votes),
             Resilience: calls);
         return new ModelSettings(
-            parse.GetValue(model),
+            source,
+            parse.GetValue(seed),
+            threads,
             http,
             Given(parse, concurrentCalls),
             Given(parse, maxCalls),
@@ -228,6 +254,8 @@ internal sealed class ModelOptions
 
 /// <summary>The model options, read and checked.</summary>
 /// <param name="Source">The <c>--model</c> value (checked by the source registry).</param>
+/// <param name="Seed">Sampling seed, for any source that samples; null for none.</param>
+/// <param name="ModelThreads">CPU threads per run of a local model; null for every core.</param>
 /// <param name="Http">Settings of an endpoint source.</param>
 /// <param name="ConcurrentCalls">Model calls in flight at once.</param>
 /// <param name="MaxCalls">Call budget; null for none.</param>
@@ -235,6 +263,8 @@ internal sealed class ModelOptions
 /// <param name="Cache">Response cache settings.</param>
 internal sealed record ModelSettings(
     string? Source,
+    int? Seed,
+    int? ModelThreads,
     HttpModelOptions Http,
     int ConcurrentCalls,
     int? MaxCalls,

@@ -4,6 +4,7 @@ using ArchUnitNET.Fluent.Syntax.Elements.Types;
 using ArchUnitNET.Loader;
 using ArchUnitNET.xUnit;
 using Plumbline.Core.Coherence;
+using Plumbline.LocalModel;
 using Plumbline.Models.Recording;
 using Plumbline.Nli;
 using Plumbline.Reports;
@@ -24,10 +25,11 @@ public sealed class DependencyRuleTests
     private static readonly System.Reflection.Assembly NliAssembly = typeof(OnnxEntailmentScorer).Assembly;
     private static readonly System.Reflection.Assembly ModelsAssembly = typeof(RecordingLanguageModel).Assembly;
     private static readonly System.Reflection.Assembly ReportsAssembly = typeof(IReportWriter).Assembly;
+    private static readonly System.Reflection.Assembly LocalModelAssembly = typeof(LocalLanguageModel).Assembly;
     private static readonly System.Reflection.Assembly CliAssembly = typeof(PlumbCli).Assembly;
 
     private static readonly ArchUnitNET.Domain.Architecture Loaded = new ArchLoader()
-        .LoadAssemblies(CoreAssembly, SolverAssembly, NliAssembly, ModelsAssembly, ReportsAssembly, CliAssembly)
+        .LoadAssemblies(CoreAssembly, SolverAssembly, NliAssembly, ModelsAssembly, ReportsAssembly, LocalModelAssembly, CliAssembly)
         .Build();
 
     private static readonly (string Name, System.Reflection.Assembly Assembly)[] Adapters =
@@ -36,12 +38,14 @@ public sealed class DependencyRuleTests
         ("Nli", NliAssembly),
         ("Models", ModelsAssembly),
         ("Reports", ReportsAssembly),
+        ("LocalModel", LocalModelAssembly),
     ];
 
     public static TheoryData<string> ForbiddenInCore => new()
     {
         "System.Net.Http",
         "Microsoft.ML.OnnxRuntime",
+        "Microsoft.ML.OnnxRuntimeGenAI",
         "Google.OrTools",
         "Microsoft.Data.Sqlite",
         "Spectre.Console",
@@ -121,6 +125,8 @@ public sealed class DependencyRuleTests
             .NotDependOnAny(Referenced().That().ResideInNamespaceMatching("^Google\\.OrTools(\\..*)?$")).HasNoViolations(Loaded));
         Assert.False(TypesIn(NliAssembly).Should()
             .NotDependOnAny(Referenced().That().HaveFullName("System.IO.File")).HasNoViolations(Loaded));
+        Assert.False(TypesIn(LocalModelAssembly).Should()
+            .NotDependOnAny(Referenced().That().ResideInNamespaceMatching("^Microsoft\\.ML\\.OnnxRuntimeGenAI(\\..*)?$")).HasNoViolations(Loaded));
         Assert.False(TypesIn(CliAssembly).Should()
             .NotDependOnAny(Referenced().That().HaveFullName("System.Console")).HasNoViolations(Loaded));
     }

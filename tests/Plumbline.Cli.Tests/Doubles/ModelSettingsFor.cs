@@ -9,6 +9,8 @@ internal static class ModelSettingsFor
 {
     public static ModelSettings Recording(string path) => new(
         "recording:" + path,
+        Seed: null,
+        ModelThreads: null,
         new HttpModelOptions(""),
         ModelOptions.DefaultConcurrentCalls,
         MaxCalls: null,
