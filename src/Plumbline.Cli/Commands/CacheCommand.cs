@@ -1,4 +1,5 @@
 using System.CommandLine;
+using Plumbline.Application;
 using System.Globalization;
 using System.Text;
 using Plumbline.Cli.Composition;
@@ -15,13 +16,13 @@ namespace Plumbline.Cli.Commands;
 /// </summary>
 internal static class CacheCommand
 {
-    public static Command Create(CliContext context)
+    public static Command Create(CliContext context, CompositionRoot composition)
     {
         var command = new Command("cache", "Inspect, export, import or prune the response cache.");
-        command.Subcommands.Add(Inspect(context));
-        command.Subcommands.Add(Export(context));
-        command.Subcommands.Add(Import(context));
-        command.Subcommands.Add(Prune(context));
+        command.Subcommands.Add(Inspect(context, composition));
+        command.Subcommands.Add(Export(context, composition));
+        command.Subcommands.Add(Import(context, composition));
+        command.Subcommands.Add(Prune(context, composition));
         return command;
     }
 
@@ -31,14 +32,14 @@ internal static class CacheCommand
         HelpName = "KEY",
     };
 
-    private static Command Inspect(CliContext context)
+    private static Command Inspect(CliContext context, CompositionRoot composition)
     {
         var cache = new CacheOptions();
         var command = new Command("inspect", "List the model identities in the cache with their counts.");
         cache.AddTo(command, judging: false);
         command.SetAction((parse, cancellationToken) => Guarded.RunAsync(context, async () =>
         {
-            await using var store = await OpenAsync(cache.Read(parse), cancellationToken);
+            await using var store = await OpenAsync(composition, cache.Read(parse), cancellationToken);
             var identities = await store.InspectAsync(cancellationToken);
             var text = new StringBuilder();
             text.Append(CultureInfo.InvariantCulture, $"cache {store.FilePath} ({new FileInfo(store.FilePath).Length} bytes, {identities.Count} model identities)\n");
@@ -55,7 +56,7 @@ internal static class CacheCommand
         return command;
     }
 
-    private static Command Export(CliContext context)
+    private static Command Export(CliContext context, CompositionRoot composition)
     {
         var file = new Argument<string>("file") { Description = "The recording to write (must not exist).", HelpName = "FILE" };
         var identity = IdentityOption();
@@ -72,7 +73,7 @@ internal static class CacheCommand
                 throw new UsageException($"{path}: already exists; export writes a new recording");
             }
 
-            await using var store = await OpenAsync(cache.Read(parse), cancellationToken);
+            await using var store = await OpenAsync(composition, cache.Read(parse), cancellationToken);
             var chosen = await store.ResolveAsync(parse.GetValue(identity), cancellationToken);
             var lines = await store.ExportAsync(chosen.Key, path, cancellationToken);
             await context.Error.WriteLineAsync(CliErrors.Line($"cache: {lines} answers of {chosen.Key[..12]} written to {path}"));
@@ -81,7 +82,7 @@ internal static class CacheCommand
         return command;
     }
 
-    private static Command Import(CliContext context)
+    private static Command Import(CliContext context, CompositionRoot composition)
     {
         var file = new Argument<string>("file") { Description = "A recording file.", HelpName = "FILE" };
         var model = new ModelOptions();
@@ -97,9 +98,9 @@ internal static class CacheCommand
             }
 
             var settings = model.Read(parse);
-            var kind = ModelComposition.Registry(settings, Backends.Environment, Backends.Time).Resolve(settings.Source);
+            var kind = ModelComposition.Registry(settings, composition.Environment, composition.Time).Resolve(settings.Source);
             var identity = kind.Identify(settings.Source!);
-            await using var store = await OpenAsync(settings.Cache, cancellationToken);
+            await using var store = await OpenAsync(composition, settings.Cache, cancellationToken);
             var added = await store.ImportAsync(path, identity, PromptBook.PromptVersion, cancellationToken);
             await context.Error.WriteLineAsync(CliErrors.Line($"cache: {added} answers added under {identity.Key[..12]} in {store.FilePath}"));
             return ExitCodes.Success;
@@ -107,7 +108,7 @@ internal static class CacheCommand
         return command;
     }
 
-    private static Command Prune(CliContext context)
+    private static Command Prune(CliContext context, CompositionRoot composition)
     {
         var identity = IdentityOption();
         var olderThan = new Option<double?>("--older-than")
@@ -132,9 +133,9 @@ internal static class CacheCommand
                 throw new UsageException("cache prune: say what to delete: --identity KEY, --older-than DAYS or --all");
             }
 
-            await using var store = await OpenAsync(cache.Read(parse), cancellationToken);
+            await using var store = await OpenAsync(composition, cache.Read(parse), cancellationToken);
             var key = prefix is null ? null : (await store.ResolveAsync(prefix, cancellationToken)).Key;
-            var before = days is { } d ? Backends.Time.GetUtcNow() - TimeSpan.FromDays(d) : (DateTimeOffset?)null;
+            var before = days is { } d ? composition.Time.GetUtcNow() - TimeSpan.FromDays(d) : (DateTimeOffset?)null;
             var removed = await store.PruneAsync(key, before, cancellationToken);
             await context.Error.WriteLineAsync(CliErrors.Line($"cache: {removed} answers deleted from {store.FilePath}"));
             return ExitCodes.Success;
@@ -142,6 +143,6 @@ internal static class CacheCommand
         return command;
     }
 
-    private static Task<ResponseCache> OpenAsync(CacheSettings settings, CancellationToken cancellationToken) =>
-        ResponseCache.OpenAsync(settings.FilePath(Backends.Environment), Backends.Time, cancellationToken);
+    private static Task<ResponseCache> OpenAsync(CompositionRoot composition, CacheSettings settings, CancellationToken cancellationToken) =>
+        ResponseCache.OpenAsync(settings.FilePath(composition.Environment), composition.Time, cancellationToken);
 }

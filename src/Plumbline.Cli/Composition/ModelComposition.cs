@@ -1,6 +1,7 @@
 using Plumbline.Cli.Options;
 using Plumbline.Core.Language;
 using Plumbline.Core.Language.Sources;
+using Plumbline.LocalModel;
 using Plumbline.Models.Cache;
 using Plumbline.Models.Http;
 using Plumbline.Models.Limits;
@@ -19,16 +20,21 @@ internal static class ModelComposition
     [
         new RecordingSourceKind(),
         new HttpSourceKind(settings.Http, environment, time),
-        new LocalSourceKind(settings.ModelThreads, settings.Seed),
+        new LocalSourceKind(new LocalModelOptions(Threads: settings.ModelThreads, Seed: settings.Seed)),
     ]);
 
-    /// <summary>Opens and checks the source (a file is read, an endpoint gets one small request), then the cache.</summary>
+    /// <summary>Opens and checks the source through the registry (a file is read, an endpoint gets one small request).</summary>
     /// <exception cref="ModelSourceException">The source cannot be used.</exception>
+    public static Task<OpenedModel> OpenAsync(
+        ModelSettings settings, string promptVersion, Func<string, string?> environment, TimeProvider time, CancellationToken cancellationToken) =>
+        Registry(settings, environment, time).OpenAsync(settings.Source, new ModelOpening(promptVersion), cancellationToken);
+
+    /// <summary>Wraps an opened source in the run's decorators, opening the cache when the source is worth caching.
+    /// The composed model owns the source: disposing it disposes the source, also when this throws.</summary>
     /// <exception cref="ResponseCacheException">The cache file cannot be used.</exception>
-    public static async Task<ComposedModel> OpenAsync(
-        ModelSettings settings, string promptVersion, Func<string, string?> environment, TimeProvider time, CancellationToken cancellationToken)
+    public static async Task<ComposedModel> ComposeAsync(
+        OpenedModel opened, ModelSettings settings, string promptVersion, Func<string, string?> environment, TimeProvider time, CancellationToken cancellationToken)
     {
-        var opened = await Registry(settings, environment, time).OpenAsync(settings.Source, new ModelOpening(promptVersion), cancellationToken);
         ResponseCache? cache = null;
         try
         {

@@ -1,4 +1,5 @@
 using System.CommandLine;
+using Plumbline.Application;
 using Plumbline.Models.Cache;
 
 namespace Plumbline.Cli.Options;

@@ -1,4 +1,5 @@
 using System.CommandLine;
+using Plumbline.Application;
 using System.CommandLine.Parsing;
 using System.Globalization;
 using Plumbline.Models.Http;
@@ -13,9 +14,6 @@ namespace Plumbline.Cli.Options;
 internal sealed class ModelOptions
 {
     public const int DefaultConcurrentCalls = 16;
-
-    /// <summary>How a local model folder is written as a source.</summary>
-    public const string LocalSourceKindPrefix = "onnx:";
 
     private readonly Option<string?> model = new("--model")
     {
@@ -193,7 +191,7 @@ internal sealed class ModelOptions
             throw new UsageException("--model-threads: give 1 or more");
         }
 
-        if (threads is not null && source?.StartsWith(LocalSourceKindPrefix, StringComparison.OrdinalIgnoreCase) != true)
+        if (threads is not null && source?.StartsWith(Plumbline.LocalModel.LocalSourceKind.Prefix, StringComparison.OrdinalIgnoreCase) != true)
         {
             throw new UsageException("--model-threads: only a local model (--model onnx:DIR) runs here");
         }

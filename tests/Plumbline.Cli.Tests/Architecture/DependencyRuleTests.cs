@@ -27,9 +27,10 @@ public sealed class DependencyRuleTests
     private static readonly System.Reflection.Assembly ReportsAssembly = typeof(IReportWriter).Assembly;
     private static readonly System.Reflection.Assembly LocalModelAssembly = typeof(LocalLanguageModel).Assembly;
     private static readonly System.Reflection.Assembly CliAssembly = typeof(PlumbCli).Assembly;
+    private static readonly System.Reflection.Assembly ApplicationAssembly = typeof(Plumbline.Application.Running.ClaimRun).Assembly;
 
     private static readonly ArchUnitNET.Domain.Architecture Loaded = new ArchLoader()
-        .LoadAssemblies(CoreAssembly, SolverAssembly, NliAssembly, ModelsAssembly, ReportsAssembly, LocalModelAssembly, CliAssembly)
+        .LoadAssemblies(CoreAssembly, SolverAssembly, NliAssembly, ModelsAssembly, ReportsAssembly, LocalModelAssembly, ApplicationAssembly, CliAssembly)
         .Build();
 
     private static readonly (string Name, System.Reflection.Assembly Assembly)[] Adapters =
@@ -112,6 +113,31 @@ public sealed class DependencyRuleTests
 
         rule.Check(Loaded);
         Assert.DoesNotContain(AdapterNamed(from).GetReferencedAssemblies(), r => r.Name == AdapterNamed(to).GetName().Name);
+    }
+
+    /// <summary>The application layer runs the engine through Core's ports; which model or NLI model sits behind them
+    /// is the composition root's business, and parsing the command line is the CLI's.</summary>
+    [Theory]
+    [InlineData("Nli")]
+    [InlineData("Models")]
+    [InlineData("LocalModel")]
+    public void Application_DoesNotDependOnModelSideAdapters(string adapter)
+    {
+        IArchRule rule = TypesIn(ApplicationAssembly).Should().NotDependOnAny(TypesIn(AdapterNamed(adapter)));
+
+        rule.Check(Loaded);
+        Assert.DoesNotContain(ApplicationAssembly.GetReferencedAssemblies(), r => r.Name == AdapterNamed(adapter).GetName().Name);
+    }
+
+    [Fact]
+    public void Application_DoesNotParseTheCommandLine()
+    {
+        IArchRule rule = TypesIn(ApplicationAssembly).Should()
+            .NotDependOnAny(Referenced().That().ResideInNamespaceMatching("^System\\.CommandLine(\\..*)?$"));
+
+        rule.Check(Loaded);
+        Assert.False(TypesIn(CliAssembly).Should()
+            .NotDependOnAny(Referenced().That().ResideInNamespaceMatching("^System\\.CommandLine(\\..*)?$")).HasNoViolations(Loaded));
     }
 
     [Fact]
