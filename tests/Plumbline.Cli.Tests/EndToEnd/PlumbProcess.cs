@@ -23,11 +23,18 @@ internal sealed class PlumbProcess : IDisposable
 
     public static string Dotnet => Environment.GetEnvironmentVariable("DOTNET_HOST_PATH") ?? "dotnet";
 
-    public static PlumbProcess Start(string workingDirectory, params string[] args) => Start(workingDirectory, [], readOutput: true, args);
+    public static PlumbProcess Start(string workingDirectory, params string[] args) => Start(workingDirectory, [], readOutput: true, null, args);
+
+    /// <summary>Starts plumb with extra environment variables (added to, or replacing, the test process's own).</summary>
+    public static PlumbProcess Start(string workingDirectory, IReadOnlyDictionary<string, string>? environment, params string[] args) =>
+        Start(workingDirectory, [], readOutput: true, environment, args);
+
+    public static PlumbProcess Start(string workingDirectory, IReadOnlyList<string> launcher, bool readOutput, params string[] args) =>
+        Start(workingDirectory, launcher, readOutput, null, args);
 
     /// <summary>Starts plumb behind <paramref name="launcher"/> (a command and its arguments that run the rest, or none);
     /// with <paramref name="readOutput"/> false the test reads standard output itself.</summary>
-    public static PlumbProcess Start(string workingDirectory, IReadOnlyList<string> launcher, bool readOutput, params string[] args)
+    public static PlumbProcess Start(string workingDirectory, IReadOnlyList<string> launcher, bool readOutput, IReadOnlyDictionary<string, string>? environment, params string[] args)
     {
         var start = new ProcessStartInfo(launcher.Count > 0 ? launcher[0] : Dotnet)
         {
@@ -37,6 +44,11 @@ internal sealed class PlumbProcess : IDisposable
             RedirectStandardInput = true,
             UseShellExecute = false,
         };
+        foreach (var (name, value) in environment ?? new Dictionary<string, string>())
+        {
+            start.Environment[name] = value;
+        }
+
         foreach (var part in launcher.Skip(1).Append(Dotnet).Skip(launcher.Count > 0 ? 0 : 1))
         {
             start.ArgumentList.Add(part);
@@ -84,6 +96,13 @@ internal sealed class PlumbProcess : IDisposable
     {
         using var kill = Process.Start("kill", ["-INT", process.Id.ToString(System.Globalization.CultureInfo.InvariantCulture)]);
         await kill.WaitForExitAsync();
+    }
+
+    /// <summary>Ends the process at once (SIGKILL), as a crash or an out-of-memory kill would.</summary>
+    public void Kill()
+    {
+        process.Kill(entireProcessTree: true);
+        process.WaitForExit();
     }
 
     public void Dispose()

@@ -13,7 +13,8 @@ public sealed class BadInputCorpusTests
 {
     private static readonly CompositionRoot AnyClaim = new()
     {
-        OpenModel = (_, _, _) => Task.FromResult<Plumbline.Core.Language.ILanguageModel>(new ScriptedLanguageModel(new Dictionary<string, double>(), anyOtherClaim: 0.7)),
+        OpenModel = (_, _, _) => Task.FromResult(Plumbline.Core.Language.Sources.OpenedModel.Stored(
+            new ScriptedLanguageModel(new Dictionary<string, double>(), anyOtherClaim: 0.7), new Plumbline.Core.Language.ModelIdentity("scripted", "scripted"))),
         OpenScorer = _ => new NeutralScorer(),
     };
 

@@ -13,7 +13,8 @@ public sealed class RunBehaviourTests
 {
     private static CompositionRoot Root(IEntailmentScorer? scorer = null, ReportWriterRegistry? reports = null) => new()
     {
-        OpenModel = (_, _, _) => Task.FromResult<ILanguageModel>(new ScriptedLanguageModel(new Dictionary<string, double>(), anyOtherClaim: 0.7)),
+        OpenModel = (_, _, _) => Task.FromResult(Plumbline.Core.Language.Sources.OpenedModel.Stored(
+            new ScriptedLanguageModel(new Dictionary<string, double>(), anyOtherClaim: 0.7), new ModelIdentity("scripted", "scripted"))),
         OpenScorer = _ => scorer ?? new NeutralScorer(),
         Reports = reports ?? ReportWriterRegistry.Default,
     };
