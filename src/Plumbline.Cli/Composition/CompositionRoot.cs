@@ -116,7 +116,7 @@ internal sealed class CompositionRoot
 
             diagnostics.InputProblems(input.Problems);
             await using var store = SpillClaimStore.Create();
-            var outcome = await run.RunAsync(input, store, new SinkSet(sinks, diagnostics), gates: null, cancellationToken);
+            var outcome = await run.RunAsync(input, store, new SinkSet(sinks, diagnostics), GatesOf(settings.Gates), cancellationToken);
             if (outcome.Bug is { } bug)
             {
                 diagnostics.Bug(bug);
@@ -134,6 +134,9 @@ internal sealed class CompositionRoot
             (scorer as IDisposable)?.Dispose();
         }
     }
+
+    private static Func<RunFigures, IReadOnlyList<GateResult>>? GatesOf(IReadOnlyList<Gate> gates) =>
+        gates.Count == 0 ? null : figures => Gate.CheckAll(gates, figures);
 
     private Task<OpenedModel> OpenFromRegistryAsync(ModelSettings settings, string promptVersion, CancellationToken cancellationToken) =>
         ModelComposition.OpenAsync(settings, promptVersion, Environment, Time, cancellationToken);

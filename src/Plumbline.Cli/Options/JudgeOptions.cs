@@ -87,6 +87,7 @@ internal sealed class JudgeOptions
         NliModel = NliModelOption.Create();
         Model = new ModelOptions();
         Output = new OutputOptions(reportFormats);
+        Gates = new GateOptions();
         negation.AcceptOnlyFromAmong(EngineChoices.Negations);
         weighting.AcceptOnlyFromAmong(EngineChoices.Weightings);
         contestedAt.CustomParser = result => NumberParsing.Parse(result, "--contested-at", "a margin (a number 0 or more)", v => v >= 0);
@@ -105,6 +106,8 @@ internal sealed class JudgeOptions
 
     public OutputOptions Output { get; }
 
+    public GateOptions Gates { get; }
+
     public void AddTo(Command command)
     {
         Model.AddTo(command);
@@ -121,6 +124,7 @@ internal sealed class JudgeOptions
         command.Options.Add(inFlight);
         command.Options.Add(strictInput);
         command.Options.Add(junitFailures);
+        Gates.AddTo(command);
     }
 
     /// <summary>Adds the claim-format option, which only a command reading a claim file has.</summary>
@@ -155,6 +159,7 @@ internal sealed class JudgeOptions
             ClaimsFormat = claimsFormat,
             JunitFailures = JunitFailuresOf(parse.GetValue(junitFailures)!),
             Seed = source.Seed,
+            Gates = Gates.Read(parse),
         };
     }
 

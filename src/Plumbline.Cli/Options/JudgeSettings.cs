@@ -46,6 +46,9 @@ internal sealed record JudgeSettings(
 
     /// <summary>What makes a JUnit test case fail.</summary>
     public Reports.JunitFailures JunitFailures { get; init; } = Plumbline.Reports.JunitFailures.Default;
+
+    /// <summary>Thresholds checked on the run figures; a failed one makes the exit code 1.</summary>
+    public IReadOnlyList<Core.Runs.Gate> Gates { get; init; } = [];
 }
 
 /// <summary>One report: its format and its file; a null <paramref name="Path"/> is standard output.</summary>
