@@ -39,7 +39,8 @@ internal static class Guarded
     /// <summary>The message for an error the user can fix, or null for anything else.</summary>
     internal static string? UsageMessage(Exception e) => e switch
     {
-        UsageException or InputFormatException or NliModelException or ModelSourceException or ResponseCacheException => e.Message,
+        UsageException or InputFormatException or NliModelException or ModelSourceException or ResponseCacheException
+            or Reports.ReportReadException => e.Message,
         LocalModelException => $"--model: {e.Message}",
         FileNotFoundException notFound => $"{notFound.FileName ?? "file"}: file not found",
         DirectoryNotFoundException or UnauthorizedAccessException or IOException => e.Message,

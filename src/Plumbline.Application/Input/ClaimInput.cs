@@ -1,6 +1,7 @@
 using System.Runtime.CompilerServices;
 using System.Text;
 using Plumbline.Core.Claims;
+using Plumbline.Reports.Model;
 
 namespace Plumbline.Application.Input;
 
@@ -8,7 +9,9 @@ namespace Plumbline.Application.Input;
 /// A claim input checked up front: every record is read once before anything is judged, so that bad lines and
 /// duplicate ids are known (and, in strict mode, refused) before a model call is spent, and so the run knows how
 /// many claims lie ahead. Judging then reads the input again, lazily, skipping the bad lines. Standard input is
-/// copied to a temporary file first so it can be read twice. Only the ids seen are held in memory.
+/// copied to a temporary file first so it can be read twice. Only the ids seen are held in memory. The check also
+/// takes a digest of the usable claims, which tells reports of this input from reports of another, and
+/// <see cref="Sharded"/> gives a view holding only one shard's claims, each still numbered by its place in the whole.
 /// </summary>
 public sealed class ClaimInput : IDisposable
 {
@@ -17,29 +20,44 @@ public sealed class ClaimInput : IDisposable
 
     private readonly Func<CancellationToken, IAsyncEnumerable<ClaimLine>> open;
     private readonly HashSet<int> badLines;
+    private readonly IReadOnlyCollection<string> ids;
     private readonly string? temporaryFile;
 
     private ClaimInput(
         string name,
         Func<CancellationToken, IAsyncEnumerable<ClaimLine>> open,
-        int count,
+        IReadOnlyCollection<string> ids,
+        string digest,
         IReadOnlyList<ClaimFileException> problems,
         HashSet<int> badLines,
-        string? temporaryFile)
+        string? temporaryFile,
+        ClaimShard? shard = null)
     {
         Name = name;
         this.open = open;
-        Count = count;
+        this.ids = ids;
         Problems = problems;
         this.badLines = badLines;
         this.temporaryFile = temporaryFile;
+        Shard = shard;
+        Count = shard is null ? ids.Count : ids.Count(shard.Contains);
+        Identity = new RunInput(name, ids.Count, digest, shard);
     }
 
     /// <summary>The input's name in messages: the file's path, "stdin", or "command line".</summary>
     public string Name { get; }
 
-    /// <summary>Usable claims.</summary>
+    /// <summary>Usable claims this input hands on: all of them, or those of <see cref="Shard"/>.</summary>
     public int Count { get; }
+
+    /// <summary>Usable claims in the whole input, whichever shard is judged.</summary>
+    public int TotalCount => ids.Count;
+
+    /// <summary>The shard this view holds; null for the whole input.</summary>
+    public ClaimShard? Shard { get; }
+
+    /// <summary>Name, size and digest of the whole input, and the shard, as reports record them.</summary>
+    public RunInput Identity { get; }
 
     /// <summary>Records that cannot be used (malformed, duplicate id ...), in input order.</summary>
     public IReadOnlyList<ClaimFileException> Problems { get; }
@@ -53,7 +71,23 @@ public sealed class ClaimInput : IDisposable
             throw new ArgumentException("claim ids must be distinct", nameof(claims));
         }
 
-        return new ClaimInput(name, ct => Lines(claims), claims.Count, [], [], null);
+        using var digest = new ClaimDigest();
+        foreach (var claim in claims)
+        {
+            digest.Add(claim);
+        }
+
+        return new ClaimInput(name, ct => Lines(claims), [.. claims.Select(c => c.Id)], digest.Finish(), [], [], null);
+    }
+
+    /// <summary>
+    /// A view of this input holding only the claims of <paramref name="shard"/>. It reads through this input, which
+    /// keeps any temporary copy and must outlive it; problems and identity are those of the whole input.
+    /// </summary>
+    public ClaimInput Sharded(ClaimShard shard)
+    {
+        ArgumentNullException.ThrowIfNull(shard);
+        return new ClaimInput(Name, open, ids, Identity.Digest, Problems, badLines, temporaryFile: null, shard);
     }
 
     /// <summary>Opens and checks a claim file.</summary>
@@ -96,14 +130,28 @@ public sealed class ClaimInput : IDisposable
         _ => ClaimFileFormat.JsonLines,
     };
 
-    /// <summary>The usable claims, in input order, read lazily.</summary>
+    /// <summary>The usable claims (of the shard, if any), in input order, read lazily.</summary>
     public async IAsyncEnumerable<Claim> ReadAsync([EnumeratorCancellation] CancellationToken cancellationToken)
     {
+        await foreach (var numbered in ReadNumberedAsync(cancellationToken))
+        {
+            yield return numbered.Claim;
+        }
+    }
+
+    /// <summary>The usable claims (of the shard, if any), each with its place among all the input's usable claims, from 1.</summary>
+    public async IAsyncEnumerable<NumberedClaim> ReadNumberedAsync([EnumeratorCancellation] CancellationToken cancellationToken)
+    {
+        var position = 0;
         await foreach (var line in open(cancellationToken).WithCancellation(cancellationToken))
         {
             if (line.Claim is { } claim && !badLines.Contains(line.Line))
             {
-                yield return claim;
+                position++;
+                if (Shard is null || Shard.Contains(claim.Id))
+                {
+                    yield return new NumberedClaim(position, claim);
+                }
             }
         }
     }
@@ -123,6 +171,7 @@ public sealed class ClaimInput : IDisposable
         var seen = new Dictionary<string, int>(StringComparer.Ordinal);
         var problems = new List<ClaimFileException>();
         var bad = new HashSet<int>();
+        using var digest = new ClaimDigest();
         await foreach (var line in Open(cancellationToken).WithCancellation(cancellationToken))
         {
             if (line.Problem is { } problem)
@@ -135,6 +184,10 @@ public sealed class ClaimInput : IDisposable
                 problems.Add(new ClaimFileException(name, line.Line, "id", $"duplicate id '{line.Claim.Id}' (first used on line {seen[line.Claim.Id]})"));
                 bad.Add(line.Line);
             }
+            else
+            {
+                digest.Add(line.Claim);
+            }
         }
 
         if (seen.Count == 0 && problems.Count == 0)
@@ -142,7 +195,7 @@ public sealed class ClaimInput : IDisposable
             throw new ClaimFileException(name, 1, null, "the input holds no claim");
         }
 
-        return new ClaimInput(name, Open, seen.Count, problems, bad, temporaryFile);
+        return new ClaimInput(name, Open, seen.Keys, digest.Finish(), problems, bad, temporaryFile);
     }
 
     private static async IAsyncEnumerable<ClaimLine> ReadFileAsync(

@@ -35,7 +35,7 @@ public sealed class ClaimRun(IClaimJudge judge, RunSettings settings, TimeProvid
         ArgumentNullException.ThrowIfNull(sinks);
         ArgumentOutOfRangeException.ThrowIfLessThan(options.InFlight, 1);
 
-        var header = RunHeader.Create(options.ToolVersion, settings, time.GetUtcNow(), options.Listing);
+        var header = RunHeader.Create(options.ToolVersion, settings, time.GetUtcNow(), options.Listing) with { Input = input.Identity };
         var startedAt = time.GetTimestamp();
         using var state = new RunState(cancellationToken);
         var problems = input.Problems.Select(p => new RunProblem("input", p.Message)).ToList();
@@ -43,23 +43,25 @@ public sealed class ClaimRun(IClaimJudge judge, RunSettings settings, TimeProvid
 
         var tally = new RunTally();
         var notJudged = new List<string>();
-        var pending = Channel.CreateUnbounded<(Claim Claim, Task<Verdict> Verdict)>(new UnboundedChannelOptions { SingleReader = true, SingleWriter = true });
+        var pending = Channel.CreateUnbounded<(NumberedClaim Claim, Task<Verdict> Verdict)>(new UnboundedChannelOptions { SingleReader = true, SingleWriter = true });
         using var slots = new SemaphoreSlim(options.InFlight, options.InFlight);
         var producer = ProduceAsync(input, pending.Writer, slots, state);
 
         var position = 0;
-        await foreach (var (claim, task) in pending.Reader.ReadAllAsync(CancellationToken.None))
+        await foreach (var (numbered, task) in pending.Reader.ReadAllAsync(CancellationToken.None))
         {
-            var verdict = await FinishAsync(claim, task, state);
+            var verdict = await FinishAsync(numbered.Claim, task, state);
             slots.Release();
             if (verdict is null)
             {
-                notJudged.Add(claim.Id);
+                notJudged.Add(numbered.Claim.Id);
                 continue;
             }
 
-            tally.Add(verdict);
-            var report = ClaimReportBuilder.From(verdict, options.Listing);
+            // Figures are folded from the claim's report, with the numbers it prints, so that a merge of shard
+            // reports gets the same figures as this run (RunTally, ClaimReport.Tally).
+            var report = ClaimReportBuilder.From(verdict, options.Listing) with { Position = numbered.Position };
+            tally.Add(report.Tally());
             try
             {
                 await store.AddAsync(report, CancellationToken.None);
@@ -103,16 +105,16 @@ public sealed class ClaimRun(IClaimJudge judge, RunSettings settings, TimeProvid
     }
 
     /// <summary>Starts a judge task per claim as slots free up; returns how many claims it handed on.</summary>
-    private async Task<int> ProduceAsync(ClaimInput input, ChannelWriter<(Claim, Task<Verdict>)> pending, SemaphoreSlim slots, RunState state)
+    private async Task<int> ProduceAsync(ClaimInput input, ChannelWriter<(NumberedClaim, Task<Verdict>)> pending, SemaphoreSlim slots, RunState state)
     {
         var read = 0;
         try
         {
-            await foreach (var claim in input.ReadAsync(state.Token))
+            await foreach (var numbered in input.ReadNumberedAsync(state.Token))
             {
                 await slots.WaitAsync(state.Token);
-                var verdict = Task.Run(() => judge.JudgeAsync(claim, state.Token), CancellationToken.None);
-                await pending.WriteAsync((claim, verdict), CancellationToken.None);
+                var verdict = Task.Run(() => judge.JudgeAsync(numbered.Claim, state.Token), CancellationToken.None);
+                await pending.WriteAsync((numbered, verdict), CancellationToken.None);
                 read++;
             }
         }

@@ -71,14 +71,17 @@ internal sealed class CompositionRoot
         var reportSinks = ReportSinks(settings, context);
         var export = settings.ExportWcnfDirectory is { } folder ? WcnfExportSink.Open(folder) : null;
 
-        using var input = await openInput();
-        if (input.Count == 0 || (settings.StrictInput && input.Problems.Count > 0))
+        using var whole = await openInput();
+        if (whole.Count == 0 || (settings.StrictInput && whole.Problems.Count > 0))
         {
-            diagnostics.InputProblems(input.Problems);
-            throw new UsageException(input.Count == 0
-                ? $"{input.Name}: no usable claim ({input.Problems.Count} bad line(s))"
-                : $"{input.Name}: {input.Problems.Count} bad line(s); nothing was judged (--strict-input)");
+            diagnostics.InputProblems(whole.Problems);
+            throw new UsageException(whole.Count == 0
+                ? $"{whole.Name}: no usable claim ({whole.Problems.Count} bad line(s))"
+                : $"{whole.Name}: {whole.Problems.Count} bad line(s); nothing was judged (--strict-input)");
         }
+
+        // A shard may hold no claim at all (more shards than claims): its report is still written, for the merge.
+        var input = settings.Shard is { } shard ? whole.Sharded(shard) : whole;
 
         var scorer = OpenScorer(settings.NliModelDirectory);
         try

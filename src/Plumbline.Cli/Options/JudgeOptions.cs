@@ -3,6 +3,7 @@ using System.CommandLine.Parsing;
 using Plumbline.Application;
 using Plumbline.Application.Input;
 using Plumbline.Application.Running;
+using Plumbline.Core.Claims;
 using Plumbline.Core.Coherence;
 using Plumbline.Reports;
 
@@ -79,6 +80,24 @@ internal sealed class JudgeOptions
         DefaultValueFactory = _ => "overturned,gold,failed",
     };
 
+    private readonly Option<ClaimShard?> shard = new("--shard")
+    {
+        Description = "Judge only shard K of N (K from 1 to N): the claims whose id's SHA-256 falls there. Run every K, then plumb merge.",
+        HelpName = "K/N",
+        CustomParser = result =>
+        {
+            try
+            {
+                return ClaimShard.Parse(result.Tokens.Count > 0 ? result.Tokens[^1].Value : "");
+            }
+            catch (FormatException e)
+            {
+                result.AddError("--shard: " + e.Message);
+                return null;
+            }
+        },
+    };
+
     private readonly IReadOnlyList<string> formats;
 
     public JudgeOptions(IReadOnlyList<string> reportFormats)
@@ -124,6 +143,7 @@ internal sealed class JudgeOptions
         command.Options.Add(inFlight);
         command.Options.Add(strictInput);
         command.Options.Add(junitFailures);
+        command.Options.Add(shard);
         Gates.AddTo(command);
     }
 
@@ -160,6 +180,7 @@ internal sealed class JudgeOptions
             JunitFailures = JunitFailuresOf(parse.GetValue(junitFailures)!),
             Seed = source.Seed,
             Gates = Gates.Read(parse),
+            Shard = parse.GetValue(shard),
         };
     }
 

@@ -49,6 +49,9 @@ internal sealed record JudgeSettings(
 
     /// <summary>Thresholds checked on the run figures; a failed one makes the exit code 1.</summary>
     public IReadOnlyList<Core.Runs.Gate> Gates { get; init; } = [];
+
+    /// <summary>The one shard of the claims to judge; null for all of them.</summary>
+    public Core.Claims.ClaimShard? Shard { get; init; }
 }
 
 /// <summary>One report: its format and its file; a null <paramref name="Path"/> is standard output.</summary>

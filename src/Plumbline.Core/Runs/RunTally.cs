@@ -1,5 +1,4 @@
 using Plumbline.Core.Coherence;
-using Plumbline.Core.Entailment;
 using Plumbline.Core.Language;
 
 namespace Plumbline.Core.Runs;
@@ -23,28 +22,21 @@ public sealed class RunTally
     /// <summary>Failed claims added so far.</summary>
     public int Failed => failed;
 
-    public void Add(Verdict verdict)
-    {
-        ArgumentNullException.ThrowIfNull(verdict);
-        claims++;
-        modelCalls += verdict.ModelCalls;
-        tokens += verdict.Tokens;
-        conflictingPairs += verdict.Conflicts.Count;
-        cutOffDiscarded += verdict.CutOffDiscarded;
-        estimatedClaims += verdict.ProbabilitiesEstimated ? 1 : 0;
-        foreach (var link in verdict.Links)
-        {
-            if (link.Kind == EntailmentKind.Entailment)
-            {
-                entailmentLinks++;
-            }
-            else if (link.Kind == EntailmentKind.Contradiction)
-            {
-                contradictionLinks++;
-            }
-        }
+    public void Add(Verdict verdict) => Add(ClaimTally.Of(verdict));
 
-        switch (verdict.Status)
+    public void Add(ClaimTally claim)
+    {
+        ArgumentNullException.ThrowIfNull(claim);
+        claims++;
+        modelCalls += claim.ModelCalls;
+        tokens += claim.Tokens;
+        conflictingPairs += claim.Conflicts;
+        cutOffDiscarded += claim.CutOffDiscarded;
+        estimatedClaims += claim.ProbabilitiesEstimated ? 1 : 0;
+        entailmentLinks += claim.EntailmentLinks;
+        contradictionLinks += claim.ContradictionLinks;
+
+        switch (claim.Status)
         {
             case ClaimStatus.Failed:
                 failed++;
@@ -61,30 +53,30 @@ public sealed class RunTally
         }
 
         judged++;
-        marginSum += verdict.Margin;
-        normalisedMarginSum += verdict.NormalisedMargin;
-        if (verdict.Stability is { } stability)
+        marginSum += claim.Margin;
+        normalisedMarginSum += claim.NormalisedMargin;
+        if (claim.Stability is { } stability)
         {
             stabilityMeasured++;
             stabilitySum += stability.Share;
             stabilityTies += stability.Tied ? 1 : 0;
         }
 
-        if (verdict.TwoSided)
+        if (claim.TwoSided)
         {
             twoSided++;
         }
 
-        if (verdict.Claim.Gold is { } gold)
+        if (claim.Gold is { } gold)
         {
             labelled++;
-            directCorrect += verdict.DirectAnswer == gold ? 1 : 0;
-            coherentCorrect += verdict.Answer == gold ? 1 : 0;
-            pairedDirectCorrect += verdict.PairedDirectAnswer == gold ? 1 : 0;
+            directCorrect += claim.DirectAnswer == gold ? 1 : 0;
+            coherentCorrect += claim.Answer == gold ? 1 : 0;
+            pairedDirectCorrect += claim.PairedDirectAnswer == gold ? 1 : 0;
         }
     }
 
-    /// <summary>The figures of the verdicts added so far.</summary>
+    /// <summary>The figures of the claims added so far.</summary>
     public RunFigures ToFigures(TimeSpan wallTime)
     {
         double RateOf(int count) => judged == 0 ? 0.0 : (double)count / judged;

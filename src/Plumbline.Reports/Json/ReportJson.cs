@@ -27,7 +27,35 @@ internal static class ReportJson
         json.WriteString("notice", ReportNotice.Text);
         json.WritePropertyName("settings");
         WriteSettings(json, header);
+        WriteInput(json, header.Input);
         json.WriteString("started", ReportNumbers.Instant(header.Started));
+    }
+
+    private static void WriteInput(Utf8JsonWriter json, RunInput? input)
+    {
+        if (input is null)
+        {
+            json.WriteNull("input");
+            return;
+        }
+
+        json.WriteStartObject("input");
+        json.WriteString("name", input.Name);
+        json.WriteNumber("claims", input.Claims);
+        json.WriteString("digest", input.Digest);
+        if (input.Shard is { } shard)
+        {
+            json.WriteStartObject("shard");
+            json.WriteNumber("index", shard.Index);
+            json.WriteNumber("count", shard.Count);
+            json.WriteEndObject();
+        }
+        else
+        {
+            json.WriteNull("shard");
+        }
+
+        json.WriteEndObject();
     }
 
     /// <summary>End, figures, gates and completion: what is known when the run is over.</summary>
@@ -156,6 +184,11 @@ internal static class ReportJson
     {
         var where = $"claims[{claim.Id}]";
         json.WriteString("id", claim.Id);
+        if (claim.Position is { } position)
+        {
+            json.WriteNumber("position", position);
+        }
+
         json.WriteString("claim", claim.Text);
         WriteNullable(json, "gold", claim.Gold);
         json.WriteStartArray("tags");

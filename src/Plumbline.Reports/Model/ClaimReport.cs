@@ -1,6 +1,7 @@
 using Plumbline.Core.Coherence;
 using Plumbline.Core.Language;
 using Plumbline.Core.MaxSat;
+using Plumbline.Core.Runs;
 
 namespace Plumbline.Reports.Model;
 
@@ -53,6 +54,9 @@ public sealed record ClaimReport(
     VerdictTimings Timings,
     string? Error)
 {
+    /// <summary>The claim's place among its input's usable claims, from 1; null for a report built by hand.</summary>
+    public int? Position { get; init; }
+
     /// <summary>The direct answer comparing p(True | claim) with p(True | negated claim); null when unknown.</summary>
     public bool? PairedDirectAnswer { get; init; }
 
@@ -70,6 +74,29 @@ public sealed record ClaimReport(
 
     /// <summary>The answer disagrees with the gold label (false when either is missing).</summary>
     public bool DisagreesWithGold => Gold is { } gold && Answer is { } answer && gold != answer;
+
+    /// <summary>
+    /// What the claim adds to the run figures, with margins as the reports print them (rounded to
+    /// <see cref="ReportNumbers.Decimals"/> decimals). A run and a merge of its shards' reports both fold these, in
+    /// input order, so the figures of the merge are those of the unsharded run to the last digit.
+    /// </summary>
+    public ClaimTally Tally() => new(
+        Status,
+        Gold,
+        Answer,
+        DirectAnswer,
+        PairedDirectAnswer,
+        ReportNumbers.Round(Margin, "margin"),
+        ReportNumbers.Round(NormalisedMargin, "normalised_margin"),
+        TwoSided,
+        Stability,
+        Links.Count(l => l.Kind == Core.Entailment.EntailmentKind.Entailment),
+        Links.Count(l => l.Kind == Core.Entailment.EntailmentKind.Contradiction),
+        Conflicts.Count,
+        CutOffDiscarded,
+        ProbabilitiesEstimated,
+        ModelCalls,
+        Tokens);
 
     /// <summary>The statement with <paramref name="id"/>, or null.</summary>
     public StatementReport? Statement(int id) => id >= 0 && id < Statements.Count && Statements[id].Id == id

@@ -10,6 +10,9 @@ namespace Plumbline.Reports.Model;
 /// <param name="Listing">Which statement pairs each claim lists.</param>
 public sealed record RunHeader(int SchemaVersion, string ToolVersion, RunSettings Settings, DateTimeOffset Started, PairListing Listing)
 {
+    /// <summary>The claim input the run read; null for a report built by hand.</summary>
+    public RunInput? Input { get; init; }
+
     /// <summary>Bump when the report's shape changes incompatibly (and add schemas/plumbline-report-N.schema.json).</summary>
     public const int CurrentSchemaVersion = 2;
 

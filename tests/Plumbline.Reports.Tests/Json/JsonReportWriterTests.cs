@@ -43,7 +43,7 @@ public sealed class JsonReportWriterTests
     {
         using var document = await WriteAsync(SampleReports.Mixed());
 
-        string[] expected = ["schema_version", "plumbline_version", "notice", "settings", "started", "finished", "figures", "gates", "completion", "claims"];
+        string[] expected = ["schema_version", "plumbline_version", "notice", "settings", "input", "started", "finished", "figures", "gates", "completion", "claims"];
         Assert.Equal(expected, document.RootElement.EnumerateObject().Select(p => p.Name));
         Assert.Equal(2, document.RootElement.GetProperty("schema_version").GetInt32());
         Assert.Equal(ReportNotice.Text, document.RootElement.GetProperty("notice").GetString());
