@@ -1,5 +1,4 @@
 using System.CommandLine;
-using Plumbline.Core.Coherence;
 
 namespace Plumbline.Cli.Options;
 
@@ -12,40 +11,18 @@ internal sealed class JudgeOptions
         HelpName = "SOURCE",
     };
 
-    private readonly Option<string?> negation = new("--negation")
-    {
-        Description = "How statements are negated for the integrity test: model (the model rewrites them) or prefix (\"It is not true that ...\").",
-        HelpName = "MODE",
-        DefaultValueFactory = _ => "model",
-    };
-
-    private readonly Option<string?> weighting = new("--weighting")
-    {
-        Description = "Weight of a link's clause: unit (1) or nli (the NLI probability).",
-        HelpName = "MODE",
-        DefaultValueFactory = _ => "unit",
-    };
-
-    private readonly Option<double> contestedAt = new("--contested-at")
-    {
-        Description = "A margin at or below this makes a claim contested.",
-        HelpName = "MARGIN",
-        DefaultValueFactory = _ => CoherenceOptions.Default.ContestedThreshold,
-    };
-
     private readonly Option<string?> exportWcnf = new("--export-wcnf")
     {
         Description = "Write each judged claim's MAX-SAT problem to DIR/<claim id>.wcnf.",
         HelpName = "DIR",
     };
 
+    private readonly EngineOptions engine = new();
+
     public JudgeOptions(IReadOnlyList<string> reportFormats)
     {
         NliModel = NliModelOption.Create();
         Output = new OutputOptions(reportFormats);
-        negation.AcceptOnlyFromAmong(EngineChoices.Negations);
-        weighting.AcceptOnlyFromAmong(EngineChoices.Weightings);
-        contestedAt.CustomParser = result => NumberParsing.Parse(result, "--contested-at", "a margin (a number 0 or more)", v => v >= 0);
     }
 
     public Option<string?> NliModel { get; }
@@ -56,9 +33,7 @@ internal sealed class JudgeOptions
     {
         command.Options.Add(model);
         command.Options.Add(NliModel);
-        command.Options.Add(negation);
-        command.Options.Add(weighting);
-        command.Options.Add(contestedAt);
+        engine.AddTo(command);
         command.Options.Add(exportWcnf);
         Output.AddTo(command);
     }
@@ -68,12 +43,7 @@ internal sealed class JudgeOptions
     {
         var source = ModelSource.Parse(parse.GetValue(model));
         var output = Output.Read(parse);
-        var engine = CoherenceOptions.Default with
-        {
-            Negation = EngineChoices.NegationOf(parse.GetValue(negation)!),
-            Weighting = EngineChoices.WeightingOf(parse.GetValue(weighting)!),
-            ContestedThreshold = parse.GetValue(contestedAt),
-        };
+        var engine = this.engine.Read(parse);
         var export = parse.GetValue(exportWcnf);
         if (export is { Length: 0 })
         {

@@ -51,6 +51,19 @@ internal static class ReportJson
         WriteNullable(json, "seed", settings.Seed);
         json.WriteString("prompt_version", settings.PromptVersion);
         json.WriteString("solver", settings.Solver);
+        json.WriteStartObject("rules");
+        json.WriteNumber("integrity_gap", ReportNumbers.Round(settings.IntegrityGap, "settings.rules.integrity_gap"));
+        json.WriteString("belief_weight", ReportWords.Of(settings.BeliefForm));
+        json.WriteNumber("link_floor", ReportNumbers.Round(settings.LinkFloor, "settings.rules.link_floor"));
+        json.WriteString("conflicts", ReportWords.Of(settings.Conflicts));
+        json.WriteString("contradictions", ReportWords.Of(settings.Contradictions));
+        json.WriteString("nli_text", ReportWords.Of(settings.NliText));
+        json.WriteBoolean("discard_cut_off", settings.DiscardCutOff);
+        json.WriteBoolean("expand_integral_claim", settings.ExpandIntegralClaim);
+        json.WriteBoolean("claim_belief", settings.ClaimBelief);
+        json.WriteString("direct_answer", ReportWords.Of(settings.DirectAnswer));
+        json.WriteNumber("samples", settings.Samples);
+        json.WriteEndObject();
         json.WriteEndObject();
     }
 
@@ -66,10 +79,25 @@ internal static class ReportJson
         json.WriteNumber("labelled", figures.Labelled);
         WriteAccuracy(json, "direct_accuracy", figures.DirectAccuracy);
         WriteAccuracy(json, "coherent_accuracy", figures.CoherentAccuracy);
+        WriteAccuracy(json, "paired_direct_accuracy", figures.PairedDirectAccuracy);
         json.WriteNumber("overturn_rate", ReportNumbers.Round(figures.OverturnRate, "figures.overturn_rate"));
         json.WriteNumber("contested_rate", ReportNumbers.Round(figures.ContestedRate, "figures.contested_rate"));
         json.WriteNumber("two_sided_rate", ReportNumbers.Round(figures.TwoSidedRate, "figures.two_sided_rate"));
         json.WriteNumber("mean_margin", ReportNumbers.Round(figures.MeanMargin, "figures.mean_margin"));
+        json.WriteNumber("mean_normalised_margin", ReportNumbers.Round(figures.MeanNormalisedMargin, "figures.mean_normalised_margin"));
+        if (figures.MeanStability is { } stability)
+        {
+            json.WriteNumber("mean_stability", ReportNumbers.Round(stability, "figures.mean_stability"));
+        }
+        else
+        {
+            json.WriteNull("mean_stability");
+        }
+
+        json.WriteNumber("stability_ties", figures.StabilityTies);
+        json.WriteNumber("conflicting_pairs", figures.ConflictingPairs);
+        json.WriteNumber("cut_off_discarded", figures.CutOffDiscarded);
+        json.WriteNumber("estimated_claims", figures.EstimatedClaims);
         json.WriteStartObject("links");
         json.WriteNumber("entailment", figures.EntailmentLinks);
         json.WriteNumber("contradiction", figures.ContradictionLinks);
@@ -100,8 +128,24 @@ internal static class ReportJson
         json.WriteEndArray();
         WriteNullable(json, "answer", verdict.Answer);
         WriteNullable(json, "direct_answer", verdict.DirectAnswer);
+        WriteNullable(json, "paired_direct_answer", verdict.PairedDirectAnswer);
         json.WriteString("status", ReportWords.Of(verdict.Status));
         json.WriteNumber("margin", ReportNumbers.Round(verdict.Margin, $"{where}.margin"));
+        json.WriteNumber("normalised_margin", ReportNumbers.Round(verdict.NormalisedMargin, $"{where}.normalised_margin"));
+        if (verdict.Stability is { } stability)
+        {
+            json.WriteStartObject("stability");
+            json.WriteNumber("trees", stability.Trees);
+            json.WriteNumber("agreeing", stability.Agreeing);
+            json.WriteNumber("share", ReportNumbers.Round(stability.Share, $"{where}.stability.share"));
+            json.WriteBoolean("tied", stability.Tied);
+            json.WriteEndObject();
+        }
+        else
+        {
+            json.WriteNull("stability");
+        }
+
         json.WriteBoolean("two_sided", verdict.TwoSided);
         json.WriteBoolean("probabilities_estimated", verdict.ProbabilitiesEstimated);
 
@@ -110,12 +154,13 @@ internal static class ReportJson
         json.WriteNumber("kept", statements.Count(s => s.Kept));
         json.WriteNumber("pruned", verdict.PrunedCount);
         json.WriteNumber("integral", verdict.IntegralCount);
+        json.WriteNumber("cut_off_discarded", verdict.CutOffDiscarded);
         json.WriteEndObject();
 
         json.WriteStartArray("statements");
         foreach (var statement in statements)
         {
-            WriteStatement(json, statement, $"{where}.statements[{statement.Id}]");
+            WriteStatement(json, statement, verdict.Values.TryGetValue(statement.Id, out var value) ? value : null, $"{where}.statements[{statement.Id}]");
         }
 
         json.WriteEndArray();
@@ -123,11 +168,20 @@ internal static class ReportJson
         json.WriteStartArray("links");
         foreach (var link in verdict.Links)
         {
+            WriteLink(json, link, $"{where}.links");
+        }
+
+        json.WriteEndArray();
+
+        json.WriteStartArray("conflicts");
+        foreach (var conflict in verdict.Conflicts)
+        {
             json.WriteStartObject();
-            json.WriteNumber("from", link.From);
-            json.WriteNumber("to", link.To);
-            json.WriteString("kind", ReportWords.Of(link.Kind));
-            json.WriteNumber("probability", ReportNumbers.Round(link.Probability, $"{where}.links.probability"));
+            json.WritePropertyName("entailment");
+            WriteLink(json, conflict.Entailment, $"{where}.conflicts");
+            json.WritePropertyName("contradiction");
+            WriteLink(json, conflict.Contradiction, $"{where}.conflicts");
+            json.WriteBoolean("dropped", conflict.Dropped);
             json.WriteEndObject();
         }
 
@@ -166,7 +220,19 @@ internal static class ReportJson
         json.WriteEndObject();
     }
 
-    private static void WriteStatement(Utf8JsonWriter json, Statement statement, string where)
+    private static void WriteLink(Utf8JsonWriter json, Link link, string where)
+    {
+        json.WriteStartObject();
+        json.WriteNumber("from", link.From);
+        json.WriteNumber("to", link.To);
+        json.WriteString("kind", ReportWords.Of(link.Kind));
+        json.WriteNumber("probability", ReportNumbers.Round(link.Probability, $"{where}.probability"));
+        json.WriteBoolean("from_negation", link.FromNegation);
+        json.WriteBoolean("to_negation", link.ToNegation);
+        json.WriteEndObject();
+    }
+
+    private static void WriteStatement(Utf8JsonWriter json, Statement statement, bool? value, string where)
     {
         json.WriteStartObject();
         json.WriteNumber("id", statement.Id);
@@ -181,6 +247,7 @@ internal static class ReportJson
         json.WriteNumber("p_true", ReportNumbers.Round(statement.PTrue, $"{where}.p_true"));
         json.WriteNumber("p_true_of_negation", ReportNumbers.Round(statement.PTrueOfNegation, $"{where}.p_true_of_negation"));
         json.WriteBoolean("kept", statement.Kept);
+        WriteNullable(json, "value", value);
         json.WriteEndObject();
     }
 

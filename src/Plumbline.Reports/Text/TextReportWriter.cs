@@ -53,6 +53,11 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
 
         block.Append("    answer ").Append(Answer(verdict.Answer))
             .Append(" | direct answer ").Append(Answer(verdict.DirectAnswer));
+        if (verdict.PairedDirectAnswer is { } paired)
+        {
+            block.Append(" (paired ").Append(Answer(paired)).Append(')');
+        }
+
         if (verdict.Claim.Gold is { } gold)
         {
             block.Append(" | gold ").Append(Answer(gold));
@@ -62,7 +67,17 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         block.Append("    status ").Append(style.Status(verdict.Status));
         if (verdict.Status != ClaimStatus.Failed)
         {
-            block.Append(" | margin ").Append(Weight(verdict.Margin));
+            block.Append(" | margin ").Append(Weight(verdict.Margin))
+                .Append(" (normalised ").Append(Weight(verdict.NormalisedMargin)).Append(')');
+            if (verdict.Stability is { } stability)
+            {
+                block.Append(Invariant, $" | stable in {stability.Agreeing} of {stability.Trees} trees");
+                if (stability.Tied)
+                {
+                    block.Append(" (tied)");
+                }
+            }
+
             if (verdict.TwoSided)
             {
                 block.Append(" | two-sided");
@@ -75,7 +90,20 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         {
             var kept = tree.Statements.Count(s => s.Kept);
             block.Append(Invariant, $"    statements {kept} kept, {verdict.PrunedCount} pruned, {verdict.IntegralCount} integral");
-            block.Append(Invariant, $" | falsified clauses {verdict.Falsified.Count}\n");
+            block.Append(Invariant, $" | falsified clauses {verdict.Falsified.Count}");
+            if (verdict.CutOffDiscarded > 0)
+            {
+                block.Append(Invariant, $" | {verdict.CutOffDiscarded} cut-off explanations discarded");
+            }
+
+            block.Append('\n');
+        }
+
+        foreach (var conflict in verdict.Conflicts)
+        {
+            block.Append(Invariant, $"    conflict ({(conflict.Dropped ? "dropped" : "kept")}): entailment ")
+                .Append(Quote(verdict, conflict.Entailment.From)).Append(" -> ").Append(Quote(verdict, conflict.Entailment.To))
+                .Append(Invariant, $" (p {Probability(conflict.Entailment.Probability)}), contradiction the other way (p {Probability(conflict.Contradiction.Probability)})\n");
         }
 
         var contradictions = verdict.Links.Where(l => l.Kind == EntailmentKind.Contradiction).ToList();
@@ -103,6 +131,10 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         {
             block.Append("    direct accuracy   ").Append(Accuracy(direct)).Append('\n');
             block.Append("    coherent accuracy ").Append(Accuracy(coherent)).Append('\n');
+            if (figures.PairedDirectAccuracy is { } paired)
+            {
+                block.Append("    paired direct accuracy (p(claim) against p(negated claim)) ").Append(Accuracy(paired)).Append('\n');
+            }
         }
         else
         {
@@ -110,7 +142,18 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         }
 
         block.Append(Invariant, $"    overturn rate {Percent(figures.OverturnRate)} | contested rate {Percent(figures.ContestedRate)}")
-            .Append(Invariant, $" | two-sided rate {Percent(figures.TwoSidedRate)} | mean margin {Weight(figures.MeanMargin)}\n");
+            .Append(Invariant, $" | two-sided rate {Percent(figures.TwoSidedRate)} | mean margin {Weight(figures.MeanMargin)}")
+            .Append(Invariant, $" (normalised {Weight(figures.MeanNormalisedMargin)})\n");
+        if (figures.MeanStability is { } meanStability)
+        {
+            block.Append(Invariant, $"    mean stability {Percent(meanStability)} of sampled trees give the majority answer | {figures.StabilityTies} ties\n");
+        }
+
+        if (figures.ConflictingPairs > 0 || figures.CutOffDiscarded > 0 || figures.EstimatedClaims > 0)
+        {
+            block.Append(Invariant, $"    conflicting pairs {figures.ConflictingPairs} | cut-off explanations discarded {figures.CutOffDiscarded}")
+                .Append(Invariant, $" | claims with estimated probabilities {figures.EstimatedClaims}\n");
+        }
         block.Append(Invariant, $"    links found {figures.EntailmentLinks + figures.ContradictionLinks} ")
             .Append(Invariant, $"({figures.EntailmentLinks} entailment, {figures.ContradictionLinks} contradiction)\n");
         block.Append(Invariant, $"    model calls {figures.ModelCalls} | tokens {figures.Tokens.Total} ")

@@ -92,6 +92,25 @@ public static class SampleReports
     public static RunReport Mixed() =>
         RunReport.Create("0.1.0", Settings, Started, Started.AddSeconds(4.5), [Settled, Overturned, Failed]);
 
+    /// <summary>The settled sample claim with the engine's per-claim extras filled in by hand.</summary>
+    public static RunReport WithEngineExtras()
+    {
+        var conflict = new LinkConflict(
+            new Link(2, 1, EntailmentKind.Entailment, 0.61234),
+            new Link(1, 2, EntailmentKind.Contradiction, 0.7, ToNegation: true),
+            Dropped: true);
+        var settled = Settled with
+        {
+            PairedDirectAnswer = false,
+            NormalisedMargin = 1.23456 / 3.5,
+            Values = new Dictionary<int, bool> { [0] = true, [1] = true, [2] = false },
+            Conflicts = [conflict],
+            CutOffDiscarded = 2,
+            Stability = new SampleAgreement(3, 2, Tied: false),
+        };
+        return RunReport.Create("0.1.0", Settings, Started, Started.AddSeconds(1), [settled, Failed]);
+    }
+
     /// <summary>The same run with the gold labels removed, so no accuracy can be computed.</summary>
     public static RunReport WithoutGold() =>
         RunReport.Create("0.1.0", Settings, Started, Started.AddMilliseconds(350),

@@ -1,4 +1,5 @@
 using System.Text.Json;
+using Plumbline.Core.Coherence;
 using Plumbline.Core.Runs;
 using Plumbline.Reports.Json;
 using Plumbline.Reports.Tests.Fixtures;
@@ -53,11 +54,50 @@ public sealed class JsonReportWriterTests
 
         string[] expected =
         [
-            "id", "claim", "gold", "tags", "answer", "direct_answer", "status", "margin", "two_sided",
-            "probabilities_estimated", "counts", "statements", "links", "falsified_clauses", "solve_status",
-            "objective_cost", "model_calls", "tokens", "timings_ms", "error",
+            "id", "claim", "gold", "tags", "answer", "direct_answer", "paired_direct_answer", "status", "margin",
+            "normalised_margin", "stability", "two_sided", "probabilities_estimated", "counts", "statements", "links",
+            "conflicts", "falsified_clauses", "solve_status", "objective_cost", "model_calls", "tokens", "timings_ms", "error",
         ];
         Assert.Equal(expected, Claim(document, 0).EnumerateObject().Select(p => p.Name));
+    }
+
+    [Fact]
+    public async Task WriteAsync_EngineExtras_WrittenAsComputedByHandAndValid()
+    {
+        var json = await ReportOutput.TextAsync(new JsonReportWriter(), SampleReports.WithEngineExtras());
+        using var document = JsonDocument.Parse(json);
+        var claim = Claim(document, 0);
+
+        Assert.True(ReportSchemaFile.Evaluate(json).IsValid, ReportSchemaFile.Describe(ReportSchemaFile.Evaluate(json)));
+        Assert.False(claim.GetProperty("paired_direct_answer").GetBoolean());
+        // 1.23456 / 3.5 = 0.352731..., four decimals.
+        Assert.Equal("0.3527", claim.GetProperty("normalised_margin").GetRawText());
+        Assert.Equal("0.6667", claim.GetProperty("stability").GetProperty("share").GetRawText());
+        Assert.Equal((3, 2, false), (claim.GetProperty("stability").GetProperty("trees").GetInt32(), claim.GetProperty("stability").GetProperty("agreeing").GetInt32(), claim.GetProperty("stability").GetProperty("tied").GetBoolean()));
+        Assert.Equal([true, true, false, null], claim.GetProperty("statements").EnumerateArray().Select(s => s.GetProperty("value").ValueKind == JsonValueKind.Null ? (bool?)null : s.GetProperty("value").GetBoolean()));
+        var written = claim.GetProperty("conflicts")[0];
+        Assert.True(written.GetProperty("dropped").GetBoolean());
+        Assert.Equal("0.6123", written.GetProperty("entailment").GetProperty("probability").GetRawText());
+        Assert.True(written.GetProperty("contradiction").GetProperty("to_negation").GetBoolean());
+        Assert.Equal(2, claim.GetProperty("counts").GetProperty("cut_off_discarded").GetInt32());
+        var figures = document.RootElement.GetProperty("figures");
+        Assert.Equal("0.6667", figures.GetProperty("mean_stability").GetRawText());
+        Assert.Equal((1, 2), (figures.GetProperty("conflicting_pairs").GetInt32(), figures.GetProperty("cut_off_discarded").GetInt32()));
+        // The settled claim's gold is true and its paired direct answer false: 0 of 1.
+        Assert.Equal(0, figures.GetProperty("paired_direct_accuracy").GetProperty("correct").GetInt32());
+    }
+
+    [Fact]
+    public async Task WriteAsync_Settings_CarryTheEngineRules()
+    {
+        using var document = await WriteAsync(SampleReports.Mixed());
+        var rules = document.RootElement.GetProperty("settings").GetProperty("rules");
+
+        Assert.Equal(
+            ["integrity_gap", "belief_weight", "link_floor", "conflicts", "contradictions", "nli_text", "discard_cut_off", "expand_integral_claim", "claim_belief", "direct_answer", "samples"],
+            rules.EnumerateObject().Select(p => p.Name));
+        Assert.Equal(CoherenceOptions.Default.Samples, rules.GetProperty("samples").GetInt32());
+        Assert.Equal(CoherenceOptions.Default.DiscardCutOff, rules.GetProperty("discard_cut_off").GetBoolean());
     }
 
     [Fact]

@@ -16,7 +16,7 @@ public sealed class TextReportWriterTests
         var at = Array.IndexOf(lines, "c1  Water boils at 100 degrees Celsius at sea level.");
         Assert.True(at >= 0, string.Join('\n', lines));
         Assert.Equal("    answer true | direct answer true | gold true", lines[at + 1]);
-        Assert.Equal("    status settled | margin 1.2346 | two-sided", lines[at + 2]);
+        Assert.Equal("    status settled | margin 1.2346 (normalised 0.0) | two-sided", lines[at + 2]);
         Assert.Equal("    statements 3 kept, 1 pruned, 3 integral | falsified clauses 1", lines[at + 3]);
         Assert.Equal(
             "    contradiction (p 0.9877): #2 \"Water boils at 90 degrees Celsius at sea level.\" vs #0 \"Water boils at 100 degrees Celsius at sea level.\"",
@@ -31,7 +31,21 @@ public sealed class TextReportWriterTests
         var at = Array.IndexOf(lines, "c2  Glass is a liquid.");
         Assert.True(at >= 0, string.Join('\n', lines));
         Assert.Equal("    answer false | direct answer true | gold false", lines[at + 1]);
-        Assert.Equal("    status overturned | margin 0.5", lines[at + 2]);
+        Assert.Equal("    status overturned | margin 0.5 (normalised 0.0)", lines[at + 2]);
+    }
+
+    [Fact]
+    public async Task WriteAsync_EngineExtras_PairedAnswerNormalisedMarginStabilityAndConflict()
+    {
+        var lines = (await ReportOutput.TextAsync(new TextReportWriter(false), SampleReports.WithEngineExtras())).Split('\n');
+
+        var at = Array.IndexOf(lines, "c1  Water boils at 100 degrees Celsius at sea level.");
+        Assert.Equal("    answer true | direct answer true (paired false) | gold true", lines[at + 1]);
+        // 1.23456 / 3.5 = 0.35273 -> 0.3527.
+        Assert.Equal("    status settled | margin 1.2346 (normalised 0.3527) | stable in 2 of 3 trees | two-sided", lines[at + 2]);
+        Assert.Equal("    statements 3 kept, 1 pruned, 3 integral | falsified clauses 1 | 2 cut-off explanations discarded", lines[at + 3]);
+        Assert.Contains(lines, l => l.StartsWith("    conflict (dropped): entailment #2 \"Water boils at 90", StringComparison.Ordinal) && l.EndsWith("(p 0.6123), contradiction the other way (p 0.70)", StringComparison.Ordinal));
+        Assert.Contains("    mean stability 66.7% of sampled trees give the majority answer | 0 ties", lines);
     }
 
     [Fact]
@@ -68,7 +82,7 @@ public sealed class TextReportWriterTests
         Assert.Contains("    3 claims: 2 judged (1 settled, 1 overturned, 0 contested), 1 failed", lines);
         Assert.Contains("    direct accuracy   50.0% (1 of 2; Wilson 95% interval 9.5% to 90.5%)", lines);
         Assert.Contains("    coherent accuracy 100.0% (2 of 2; Wilson 95% interval 34.2% to 100.0%)", lines);
-        Assert.Contains("    overturn rate 50.0% | contested rate 0.0% | two-sided rate 50.0% | mean margin 0.8673", lines);
+        Assert.Contains("    overturn rate 50.0% | contested rate 0.0% | two-sided rate 50.0% | mean margin 0.8673 (normalised 0.0)", lines);
         Assert.Contains("    links found 4 (1 entailment, 3 contradiction)", lines);
         Assert.Contains("    model calls 27 | tokens 2010 (1640 prompt, 370 completion) | wall time 4.5 s", lines);
     }
