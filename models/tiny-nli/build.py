@@ -320,7 +320,7 @@ def build_deberta(name, model_type, type_vocab_size, user_defined, labels, card,
         "_name_or_path": f"tiny-{name}-nli", "model_type": "deberta-v2", "vocab_size": vocab_size,
         "hidden_size": HIDDEN, "num_hidden_layers": LAYERS, "num_attention_heads": HEADS,
         "max_position_embeddings": max_positions, "type_vocab_size": type_vocab_size,
-        "position_biased_input": False, "relative_attention": True,
+        "position_biased_input": False, "relative_attention": True, "pad_token_id": 0,
         "id2label": {str(i): label for i, label in enumerate(labels)},
         "label2id": {label: i for i, label in enumerate(labels)}})
     if card is None:

@@ -1,4 +1,6 @@
+using Plumbline.Cli.Options;
 using Plumbline.Core.Inputs;
+using Plumbline.LocalModel;
 using Plumbline.Nli;
 
 namespace Plumbline.Cli;
@@ -37,6 +39,7 @@ internal static class Guarded
     internal static string? UsageMessage(Exception e) => e switch
     {
         UsageException or InputFormatException or NliModelException => e.Message,
+        LocalModelException => $"{ModelSource.OptionName}: {e.Message}",
         FileNotFoundException notFound => $"{notFound.FileName ?? "file"}: file not found",
         DirectoryNotFoundException or UnauthorizedAccessException or IOException => e.Message,
         _ => null,

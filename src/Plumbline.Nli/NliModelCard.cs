@@ -16,6 +16,7 @@ namespace Plumbline.Nli;
 /// <param name="SourceFile">The file these facts were read from.</param>
 /// <param name="VocabularySize">Rows of the model's token embedding table (config.json vocab_size), when known.</param>
 /// <param name="TypeVocabularySize">Rows of its segment embedding table (config.json type_vocab_size), when known.</param>
+/// <param name="PaddingId">The padding token id the model was trained with (config.json pad_token_id), when known.</param>
 public sealed record NliModelCard(
     string Name,
     string Architecture,
@@ -28,4 +29,5 @@ public sealed record NliModelCard(
     string? OutputName,
     string SourceFile,
     long? VocabularySize = null,
-    long? TypeVocabularySize = null);
+    long? TypeVocabularySize = null,
+    long? PaddingId = null);

@@ -68,7 +68,8 @@ internal static partial class NliModelCardReader
             card.String("output"),
             card.File,
             config?.Integer("vocab_size"),
-            config?.Integer("type_vocab_size"));
+            config?.Integer("type_vocab_size"),
+            config?.Integer("pad_token_id"));
     }
 
     private static NliModelCard FromConfig(string directory, JsonFields config)
@@ -113,7 +114,8 @@ internal static partial class NliModelCardReader
             null,
             config.File,
             config.Integer("vocab_size"),
-            config.Integer("type_vocab_size"));
+            config.Integer("type_vocab_size"),
+            config.Integer("pad_token_id"));
     }
 
     /// <summary>

@@ -5,7 +5,7 @@ internal abstract record ModelSource
 {
     public const string OptionName = "--model";
 
-    private static readonly string[] Known = ["recording:PATH"];
+    private static readonly string[] Known = ["recording:PATH", "onnx:DIR"];
 
     /// <exception cref="UsageException">The text is missing or names no known kind of source.</exception>
     public static ModelSource Parse(string? text)
@@ -22,6 +22,8 @@ internal abstract record ModelSource
         {
             "recording" when value.Length > 0 => new RecordingModelSource(value),
             "recording" => throw new UsageException($"{OptionName}: 'recording:' needs the recording file's path"),
+            "onnx" when value.Length > 0 => new LocalModelSource(value),
+            "onnx" => throw new UsageException($"{OptionName}: 'onnx:' needs the model folder's path"),
             _ => throw new UsageException($"{OptionName}: unknown model source '{text}' (known: {string.Join(", ", Known)})"),
         };
     }
@@ -29,3 +31,9 @@ internal abstract record ModelSource
 
 /// <summary>Replay answers from a recording file.</summary>
 internal sealed record RecordingModelSource(string Path) : ModelSource;
+
+/// <summary>Run a decoder-only ONNX model from a folder in this process (see src/Plumbline.LocalModel/README.md).</summary>
+/// <param name="Directory">The model folder.</param>
+/// <param name="Threads">Threads per model run; null for every core.</param>
+/// <param name="Seed">Sampling seed; null for fresh randomness.</param>
+internal sealed record LocalModelSource(string Directory, int? Threads = null, int? Seed = null) : ModelSource;

@@ -2,7 +2,7 @@ namespace Plumbline.Nli.Tokenization;
 
 internal static class PairEncoders
 {
-    /// <summary>The card's tokenizer, checked against the embedding sizes config.json gives (when it gives them).</summary>
+    /// <summary>The card's tokenizer, checked against the embedding size and padding id config.json gives (when it gives them).</summary>
     public static IPairEncoder For(NliModelCard card)
     {
         IPairEncoder encoder = card.Tokenizer switch
@@ -15,6 +15,12 @@ internal static class PairEncoders
         if (card.VocabularySize is { } rows && encoder.VocabularySize > rows)
         {
             throw new NliModelException(card.VocabularyFile, $"writes token ids up to {encoder.VocabularySize - 1}, but the model's vocab_size is {rows}: this tokenizer does not belong to this model");
+        }
+
+        // Each family pads with its own id ([PAD]=0, <pad>=1), so a tokenizer from another family shows here.
+        if (card.PaddingId is { } padding && padding != encoder.PaddingId)
+        {
+            throw new NliModelException(card.VocabularyFile, $"pads with id {encoder.PaddingId}, but the model's pad_token_id is {padding}: this tokenizer does not belong to this model");
         }
 
         return encoder;

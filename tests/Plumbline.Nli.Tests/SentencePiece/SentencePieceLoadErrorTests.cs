@@ -125,6 +125,20 @@ public sealed class SentencePieceLoadErrorTests
     }
 
     [Fact]
+    public void Load_XlmRobertaTokenizerInADebertaFolder_NamesTheTokenizerAndBothPaddingIds()
+    {
+        // Ids fit within vocab_size here, but the fairseq <pad>=1 cannot be the [PAD]=0 the model was trained with.
+        using var directory = Copy(DebertaV3);
+        System.IO.File.Delete(directory.File("spm.model"));
+        System.IO.File.Copy(File(XlmRoberta, "sentencepiece.bpe.model"), directory.File("sentencepiece.bpe.model"));
+
+        var error = AssertLoadFails(directory, "sentencepiece.bpe.model");
+
+        Assert.Contains("pads with id 1", error.Message, StringComparison.Ordinal);
+        Assert.Contains("pad_token_id is 0", error.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Load_GraphTakingTokenTypeIdsWithOneSegmentRow_NamesModelOnnx()
     {
         using var directory = Copy(DebertaV3Bpe);

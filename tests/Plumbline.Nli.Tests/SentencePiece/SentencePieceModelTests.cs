@@ -51,6 +51,27 @@ public sealed class SentencePieceModelTests
 
     [Theory]
     [MemberData(nameof(All), MemberType = typeof(TinySentencePieceModels))]
+    public void Encode_FromManyThreadsAtOnce_GivesTheReferenceIds(string name)
+    {
+        // The scorer tokenises from several threads; the segmenters keep no state between calls.
+        using var model = NliModel.Load(Directory(name));
+        var references = Pairs(name);
+
+        var wrong = 0;
+        Parallel.For(0, references.Count * 8, new ParallelOptions { MaxDegreeOfParallelism = 8 }, i =>
+        {
+            var reference = references[i % references.Count];
+            if (!model.Encode(new SentencePair(reference.Premise, reference.Hypothesis)).InputIds.SequenceEqual(reference.InputIds))
+            {
+                Interlocked.Increment(ref wrong);
+            }
+        });
+
+        Assert.Equal(0, wrong);
+    }
+
+    [Theory]
+    [MemberData(nameof(All), MemberType = typeof(TinySentencePieceModels))]
     public void Encode_PairsLongerThanMaxLength_AreCutToMaxLength(string name)
     {
         using var model = NliModel.Load(Directory(name));
@@ -133,6 +154,19 @@ public sealed class SentencePieceModelTests
         Assert.Equal("tiny-deberta-v3-bpe-nli", model.Card.Name);
         Assert.Equal(40, model.Card.MaxLength);
         Assert.Equal(["neutral", "contradiction", "entailment"], model.Card.Labels);
+    }
+
+    [Fact]
+    public void Load_ExportWithACardGivingOnlyMaxLength_KeepsEverythingElseFromTheExport()
+    {
+        // A one-line card is how a user caps the length of a brought model; the rest still comes from the export.
+        using var directory = new TempModelDirectory().CopyFrom(Directory(DebertaV3)).Write("nli-model.json", """{ "max_length": 24 }""");
+        using var model = NliModel.Load(directory.Path);
+
+        Assert.Equal(24, model.Card.MaxLength);
+        Assert.Equal(NliTokenizerKind.SentencePiece, model.Card.Tokenizer);
+        Assert.Equal(["contradiction", "entailment", "neutral"], model.Card.Labels);
+        Assert.Equal(24, model.Encode(new SentencePair(Pairs(DebertaV3)[^1].Premise, "x")).Length);
     }
 
     // Padding ids: [PAD] is piece 0 of a DeBERTa-v3 model; the fairseq dictionary of XLM-R puts <pad> at 1.
