@@ -81,6 +81,32 @@ public sealed class SamplingTests
         Assert.All(generated.Ids, ids => Assert.Equal([top], ids));
     }
 
+    [Fact]
+    public void Generate_TopPHalf_DrawsOnlyFromTheNucleus()
+    {
+        // The nucleus for p = 0.5: the likeliest tokens of the recipe's softmax until their mass reaches 0.5.
+        var ranked = Answer.NextTokenProbabilities.Select((p, token) => (p, token)).OrderByDescending(x => x.p).ToArray();
+        var nucleus = new HashSet<int>();
+        var mass = 0.0;
+        foreach (var (p, token) in ranked)
+        {
+            nucleus.Add(token);
+            mass += p;
+            if (mass >= 0.5)
+            {
+                break;
+            }
+        }
+
+        using var model = TinyModel.Open(new LocalModelOptions(Seed: 4));
+
+        var generated = model.Generate(Sampled(Answer.Prompt, count: 500, topP: 0.5, maxTokens: 1), CancellationToken.None);
+
+        var drawn = generated.Ids.Where(ids => ids.Length == 1).Select(ids => ids[0]).ToHashSet();
+        Assert.Subset(nucleus, drawn);
+        Assert.True(drawn.Count > 1, "nucleus sampling drew a single token");
+    }
+
     [Theory]
     [InlineData(1.0)]
     [InlineData(0.5)]
