@@ -17,6 +17,7 @@ internal static class PlumbCli
         root.Subcommands.Add(SweepCommand.Create(context, composition));
         root.Subcommands.Add(SolveCommand.Create(context, composition));
         root.Subcommands.Add(NliCommand.Create(context, composition));
+        root.Subcommands.Add(CacheCommand.Create(context, composition));
         return root;
     }
 

@@ -4,11 +4,9 @@ using Plumbline.Application.Sinks;
 using Plumbline.Cli.Options;
 using Plumbline.Core.Coherence;
 using Plumbline.Core.Entailment;
-using Plumbline.Core.Language;
+using Plumbline.Core.Language.Sources;
 using Plumbline.Core.MaxSat;
 using Plumbline.Core.Runs;
-using Plumbline.LocalModel;
-using Plumbline.Models.Recording;
 using Plumbline.Nli;
 using Plumbline.Reports;
 using Plumbline.Reports.Model;
@@ -36,8 +34,12 @@ internal sealed class CompositionRoot
 
     public ReportWriterRegistry Reports { get; init; } = ReportWriterRegistry.Default;
 
-    /// <summary>Opens the language model a <c>--model</c> value names, reading and validating it fully now.</summary>
-    public Func<ModelSource, string, CancellationToken, Task<ILanguageModel>> OpenModel { get; init; } = OpenModelAsync;
+    /// <summary>Where the API key, extra header values and the cache folder convention are read.</summary>
+    public Func<string, string?> Environment { get; init; } = System.Environment.GetEnvironmentVariable;
+
+    /// <summary>Opens the model source a <c>--model</c> value names, checking it now (null: through the source registry of
+    /// <see cref="ModelComposition"/>). The run wraps it in the call cap, the budget and the response cache.</summary>
+    public Func<ModelSettings, string, CancellationToken, Task<OpenedModel>>? OpenModel { get; init; }
 
     /// <summary>Opens the NLI scorer the engine uses, from a model folder.</summary>
     public Func<string, IEntailmentScorer> OpenScorer { get; init; } = OpenOnnxScorer;
@@ -57,7 +59,7 @@ internal sealed class CompositionRoot
 
     /// <summary>
     /// Wires a judging run from validated settings and carries it out. Cheap checks and loads come first (report
-    /// destinations, export folder, claim input, model, NLI model), so that a set-up error costs nothing; then the
+    /// destinations, export folder, claim input, NLI model, then the model source and its cache), so that a set-up error costs nothing; then the
     /// run, whose reports are written whatever stopped it. Returns the exit code.
     /// </summary>
     public async Task<int> JudgeAsync(JudgeSettings settings, Func<Task<ClaimInput>> openInput, CliContext context, CancellationToken cancellationToken)
@@ -78,67 +80,63 @@ internal sealed class CompositionRoot
                 : $"{input.Name}: {input.Problems.Count} bad line(s); nothing was judged (--strict-input)");
         }
 
-        var model = await OpenModel(settings.Model, settings.Engine.PromptVersion, cancellationToken);
+        var scorer = OpenScorer(settings.NliModelDirectory);
         try
         {
-            var scorer = OpenScorer(settings.NliModelDirectory);
-            try
+            // Last of the checks, because an endpoint's check is a (one-token) request.
+            var opened = await (OpenModel ?? OpenFromRegistryAsync)(settings.Model, settings.Engine.PromptVersion, cancellationToken);
+            await using var model = await ModelComposition.ComposeAsync(
+                opened, settings.Model, settings.Engine.PromptVersion, Environment, Time, cancellationToken);
+            foreach (var notice in model.Notices)
             {
-                var solver = CreateClaimSolver();
-                var engine = new CoherenceEngine(model, scorer, solver, settings.Engine, Time);
-                var runSettings = RunSettings.From(settings.Engine, model.Describe, scorer.Describe, solver.Describe, settings.Seed);
-                var run = new ClaimRun(engine, runSettings, Time, new RunOptions(
-                    ToolVersion.Current,
-                    settings.InFlight,
-                    settings.Verbose ? PairListing.All : PairListing.Linked));
-
-                var sinks = new List<IRunSink> { diagnostics };
-                if (export is not null)
-                {
-                    sinks.Add(export);
-                }
-
-                sinks.AddRange(reportSinks);
-                if (!settings.Quiet)
-                {
-                    sinks.Add(context.ErrorIsTerminal
-                        ? new TerminalProgressSink(context.Error)
-                        : new PlainProgressSink(context.Error, Time, PlainProgressSink.DefaultInterval));
-                }
-
-                diagnostics.InputProblems(input.Problems);
-                await using var store = SpillClaimStore.Create();
-                var outcome = await run.RunAsync(input, store, new SinkSet(sinks, diagnostics), gates: null, cancellationToken);
-                if (outcome.Bug is { } bug)
-                {
-                    diagnostics.Bug(bug);
-                }
-
-                return outcome.ExitCode;
+                await context.Error.WriteLineAsync(CliErrors.Line("note: " + notice));
             }
-            finally
+
+            var solver = CreateClaimSolver();
+            var engine = new CoherenceEngine(model.Model, scorer, solver, settings.Engine, Time);
+            var runSettings = RunSettings.From(settings.Engine, model.Model.Describe, scorer.Describe, solver.Describe, settings.Seed);
+            var run = new ClaimRun(engine, runSettings, Time, new RunOptions(
+                ToolVersion.Current,
+                settings.InFlight,
+                settings.Verbose ? PairListing.All : PairListing.Linked));
+
+            var sinks = new List<IRunSink> { diagnostics };
+            if (export is not null)
             {
-                (scorer as IDisposable)?.Dispose();
+                sinks.Add(export);
             }
+
+            sinks.AddRange(reportSinks);
+            if (!settings.Quiet)
+            {
+                sinks.Add(context.ErrorIsTerminal
+                    ? new TerminalProgressSink(context.Error)
+                    : new PlainProgressSink(context.Error, Time, PlainProgressSink.DefaultInterval));
+            }
+
+            diagnostics.InputProblems(input.Problems);
+            await using var store = SpillClaimStore.Create();
+            var outcome = await run.RunAsync(input, store, new SinkSet(sinks, diagnostics), gates: null, cancellationToken);
+            if (outcome.Bug is { } bug)
+            {
+                diagnostics.Bug(bug);
+            }
+
+            if (model.CacheSummary() is { } cacheLine)
+            {
+                await context.Error.WriteLineAsync(CliErrors.Line(cacheLine));
+            }
+
+            return outcome.ExitCode;
         }
         finally
         {
-            await DisposeAsync(model);
+            (scorer as IDisposable)?.Dispose();
         }
     }
 
-    private static async Task DisposeAsync(object part)
-    {
-        switch (part)
-        {
-            case IAsyncDisposable asyncDisposable:
-                await asyncDisposable.DisposeAsync();
-                break;
-            case IDisposable disposable:
-                disposable.Dispose();
-                break;
-        }
-    }
+    private Task<OpenedModel> OpenFromRegistryAsync(ModelSettings settings, string promptVersion, CancellationToken cancellationToken) =>
+        ModelComposition.OpenAsync(settings, promptVersion, Environment, Time, cancellationToken);
 
     /// <summary>One sink per report: streaming formats write as the run goes, the others once it is over.</summary>
     private List<IRunSink> ReportSinks(JudgeSettings settings, CliContext context)
@@ -157,27 +155,6 @@ internal sealed class CompositionRoot
         }
 
         return sinks;
-    }
-
-    /// <exception cref="UsageException">The source's file does not exist or the kind is not supported.</exception>
-    /// <exception cref="RecordingFormatException">The recording has a malformed line.</exception>
-    /// <exception cref="LocalModelException">The local model folder cannot be used.</exception>
-    private static async Task<ILanguageModel> OpenModelAsync(ModelSource source, string promptVersion, CancellationToken cancellationToken)
-    {
-        switch (source)
-        {
-            case RecordingModelSource recording:
-                if (!File.Exists(recording.Path))
-                {
-                    throw new UsageException($"{ModelSource.OptionName}: recording file '{recording.Path}' not found");
-                }
-
-                return await RecordingLanguageModel.LoadAsync(recording.Path, promptVersion, cancellationToken);
-            case LocalModelSource local:
-                return LocalLanguageModel.Open(local.Directory, new LocalModelOptions(Threads: local.Threads, Seed: local.Seed));
-            default:
-                throw new UsageException($"{ModelSource.OptionName}: {source} is not supported");
-        }
     }
 
     /// <summary>Loads the ONNX NLI model of a folder.</summary>

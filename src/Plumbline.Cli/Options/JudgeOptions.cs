@@ -10,24 +10,6 @@ namespace Plumbline.Cli.Options;
 /// <summary>The options <c>check</c> and <c>sweep</c> share: model source, NLI model, engine settings, reports and how the run behaves.</summary>
 internal sealed class JudgeOptions
 {
-    private readonly Option<string?> model = new(ModelSource.OptionName)
-    {
-        Description = "Where the model's answers come from: recording:PATH replays a recording file; onnx:DIR runs a decoder-only ONNX model folder in this process.",
-        HelpName = "SOURCE",
-    };
-
-    private readonly Option<int?> seed = new("--seed")
-    {
-        Description = "Sampling seed: the same seed gives the same sampled explanations (onnx:DIR).",
-        HelpName = "N",
-    };
-
-    private readonly Option<int?> modelThreads = new("--model-threads")
-    {
-        Description = "CPU threads for each run of a local model (onnx:DIR); default: every core.",
-        HelpName = "N",
-    };
-
     private readonly Option<string?> exportWcnf = new("--export-wcnf")
     {
         Description = "Write each judged claim's MAX-SAT problem to DIR/<claim id>.wcnf.",
@@ -83,6 +65,7 @@ internal sealed class JudgeOptions
     {
         formats = reportFormats;
         NliModel = NliModelOption.Create();
+        Model = new ModelOptions();
         Output = new OutputOptions(reportFormats);
         inFlight.Validators.Add(result =>
         {
@@ -95,13 +78,13 @@ internal sealed class JudgeOptions
 
     public Option<string?> NliModel { get; }
 
+    public ModelOptions Model { get; }
+
     public OutputOptions Output { get; }
 
     public void AddTo(Command command)
     {
-        command.Options.Add(model);
-        command.Options.Add(seed);
-        command.Options.Add(modelThreads);
+        Model.AddTo(command);
         command.Options.Add(NliModel);
         engine.AddTo(command);
         command.Options.Add(exportWcnf);
@@ -121,22 +104,7 @@ internal sealed class JudgeOptions
     /// <exception cref="UsageException">A value cannot work (unknown model source, output folder missing ...).</exception>
     public JudgeSettings Read(ParseResult parse)
     {
-        var source = ModelSource.Parse(parse.GetValue(model));
-        var threads = parse.GetValue(modelThreads);
-        if (threads is < 1)
-        {
-            throw new UsageException("--model-threads: give 1 or more");
-        }
-
-        if (source is LocalModelSource local)
-        {
-            source = local with { Threads = threads, Seed = parse.GetValue(seed) };
-        }
-        else if (threads is not null)
-        {
-            throw new UsageException("--model-threads: only a local model (--model onnx:DIR) runs here");
-        }
-
+        var source = Model.Read(parse);
         var engine = this.engine.Read(parse);
         var export = parse.GetValue(exportWcnf);
         if (export is { Length: 0 })
@@ -156,7 +124,7 @@ internal sealed class JudgeOptions
             StrictInput = parse.GetValue(strictInput),
             ClaimsFormat = claimsFormat,
             JunitFailures = JunitFailuresOf(parse.GetValue(junitFailures)!),
-            Seed = parse.GetValue(seed),
+            Seed = source.Seed,
         };
     }
 

@@ -4,20 +4,20 @@ using Plumbline.Core.Coherence;
 namespace Plumbline.Cli.Options;
 
 /// <summary>What <c>check</c> and <c>sweep</c> were asked to do, validated.</summary>
-/// <param name="Model">Where the model's answers come from.</param>
+/// <param name="Model">Where the model's answers come from, and how it is called.</param>
 /// <param name="NliModelDirectory">The NLI model's folder.</param>
 /// <param name="Engine">The engine's settings.</param>
 /// <param name="ExportWcnfDirectory">Folder for one WCNF file per judged claim; null for none.</param>
 /// <param name="Reports">Every report to write, at most one of them to standard output.</param>
 internal sealed record JudgeSettings(
-    ModelSource Model,
+    ModelSettings Model,
     string NliModelDirectory,
     CoherenceOptions Engine,
     string? ExportWcnfDirectory,
     IReadOnlyList<ReportTarget> Reports)
 {
     /// <summary>One report to standard output in <paramref name="format"/>, nothing else: the plainest run.</summary>
-    public JudgeSettings(ModelSource model, string nliModelDirectory, CoherenceOptions engine, string? exportWcnfDirectory, string format)
+    public JudgeSettings(ModelSettings model, string nliModelDirectory, CoherenceOptions engine, string? exportWcnfDirectory, string format)
         : this(model, nliModelDirectory, engine, exportWcnfDirectory, [new ReportTarget(format, null)])
     {
     }

@@ -2,6 +2,7 @@ using System.Text.Json;
 using Plumbline.Cli.Composition;
 using Plumbline.Cli.Tests.Doubles;
 using Plumbline.Core.Language;
+using Plumbline.Core.Language.Sources;
 
 namespace Plumbline.Cli.Tests.Composition;
 
@@ -10,7 +11,7 @@ public sealed class CompositionRootTests
 {
     private static CompositionRoot WithDoubles(ILanguageModel model) => new()
     {
-        OpenModel = (_, _, _) => Task.FromResult(model),
+        OpenModel = (_, _, _) => Task.FromResult(OpenedModel.Stored(model, new ModelIdentity("scripted", "scripted"))),
         OpenScorer = _ => new NeutralScorer(),
     };
 

@@ -16,7 +16,7 @@ public sealed class LocalModelCheckTests
     [Fact]
     public async Task Check_TinyLocalModel_RunsEndToEndWithASchemaValidReport()
     {
-        var result = await Plumb.RunAsync("check", "The lake is frozen in winter.", "--model", "onnx:" + TinyModel, "--format", "json", "--seed", "3", "--model-threads", "1");
+        var result = await Plumb.RunAsync("check", "The lake is frozen in winter.", "--model", "onnx:" + TinyModel, "--format", "json", "--seed", "3", "--model-threads", "1", "--no-cache");
 
         Assert.True(result.ExitCode == 0, result.ToString());
         var validation = ReportSchemaFile.Evaluate(result.Output);
@@ -39,7 +39,7 @@ public sealed class LocalModelCheckTests
     {
         static async Task<string[]> StatementsAsync()
         {
-            var result = await Plumb.RunAsync("check", "The lake is frozen in winter.", "--model", "onnx:" + TinyModel, "--format", "json", "--seed", "8");
+            var result = await Plumb.RunAsync("check", "The lake is frozen in winter.", "--model", "onnx:" + TinyModel, "--format", "json", "--seed", "8", "--no-cache");
             Assert.True(result.ExitCode == 0, result.ToString());
             using var report = JsonDocument.Parse(result.Output);
             return report.RootElement.GetProperty("claims")[0].GetProperty("statements").EnumerateArray()
