@@ -71,24 +71,10 @@ internal static class ReportWords
         null => "none",
     };
 
-    public static string Of(NegationMode mode) => mode switch
-    {
-        NegationMode.Model => "model",
-        NegationMode.Prefix => "prefix",
-        _ => throw Unknown(mode),
-    };
-
-    public static string Of(ClauseWeighting weighting) => weighting switch
-    {
-        ClauseWeighting.Unit => "unit",
-        ClauseWeighting.NliProbability => "nli_probability",
-        _ => throw Unknown(weighting),
-    };
-
     public static string Of(BeliefForm form) => form switch
     {
         BeliefForm.Ratio => "ratio",
-        BeliefForm.NormalisedDifference => "difference",
+        BeliefForm.NormalisedDifference => "normalised_difference",
         _ => throw Unknown(form),
     };
 
@@ -109,7 +95,7 @@ internal static class ReportWords
     public static string Of(NliText text) => text switch
     {
         NliText.Statement => "statement",
-        NliText.NegationWhenFalse => "negation_if_false",
+        NliText.NegationWhenFalse => "negation_when_false",
         _ => throw Unknown(text),
     };
 
@@ -118,6 +104,20 @@ internal static class ReportWords
         DirectAnswerRule.Plain => "plain",
         DirectAnswerRule.Paired => "paired",
         _ => throw Unknown(rule),
+    };
+
+    public static string Of(NegationMode mode) => mode switch
+    {
+        NegationMode.Model => "model",
+        NegationMode.Prefix => "prefix",
+        _ => throw Unknown(mode),
+    };
+
+    public static string Of(ClauseWeighting weighting) => weighting switch
+    {
+        ClauseWeighting.Unit => "unit",
+        ClauseWeighting.NliProbability => "nli_probability",
+        _ => throw Unknown(weighting),
     };
 
     public static string Of(SolveStatus status) => status switch

@@ -13,11 +13,11 @@ internal sealed record GridCell(CoherenceOptions Options)
 
     /// <summary>The columns of the grid table, in the spelling of the command-line options.</summary>
     public static string Header =>
-        $"{"gap",-4} {"belief",-10} {"floor",-5} {"conflicts",-9} {"contradictions",-14} {"claim",-5} {"nli-text",-17}";
+        $"{"gap",-4} {"belief-form",-21} {"floor",-5} {"conflicts",-9} {"contradictions",-14} {"claim",-5} {"nli-text",-19}";
 
     public string Columns =>
         string.Create(CultureInfo.InvariantCulture,
-            $"{Options.IntegrityGap,-4:0.##} {Spell(Options.BeliefForm),-10} {Options.LinkFloor,-5:0.##} {Spell(Options.Conflicts),-9} {Spell(Options.Contradictions),-14} {(Options.ClaimBelief ? "on" : "off"),-5} {Spell(Options.NliText),-17}");
+            $"{Options.IntegrityGap,-4:0.##} {Spell(Options.BeliefForm),-21} {Options.LinkFloor,-5:0.##} {Spell(Options.Conflicts),-9} {Spell(Options.Contradictions),-14} {(Options.ClaimBelief ? "on" : "off"),-5} {Spell(Options.NliText),-19}");
 
     /// <summary>Settings outside the grid's six dimensions, when they differ from the engine's defaults.</summary>
     public string Extras
@@ -90,11 +90,11 @@ internal sealed record GridCell(CoherenceOptions Options)
         new(start with { DirectAnswer = start.DirectAnswer == DirectAnswerRule.Plain ? DirectAnswerRule.Paired : DirectAnswerRule.Plain }),
     ];
 
-    private static string Spell(BeliefForm form) => form == BeliefForm.Ratio ? "ratio" : "difference";
+    private static string Spell(BeliefForm form) => form == BeliefForm.Ratio ? "ratio" : "normalised-difference";
 
     private static string Spell(ConflictRule rule) => rule == ConflictRule.Keep ? "keep" : "drop";
 
     private static string Spell(ContradictionCount count) => count == ContradictionCount.EachDirection ? "each-direction" : "once-per-pair";
 
-    private static string Spell(NliText text) => text == NliText.Statement ? "statement" : "negation-if-false";
+    private static string Spell(NliText text) => text == NliText.Statement ? "statement" : "negation-when-false";
 }

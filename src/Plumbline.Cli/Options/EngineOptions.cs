@@ -35,11 +35,11 @@ internal sealed class EngineOptions
         DefaultValueFactory = _ => Defaults.IntegrityGap,
     };
 
-    private readonly Choice<BeliefForm> beliefWeight = new(
-        "--belief-weight",
-        "Weight of a belief clause: ratio (the believed side's share, above 0.5) or difference (|p(T|E) - p(T|~E)| / (p(T|E) + p(T|~E)), near 0 for a barely integral statement).",
+    private readonly Choice<BeliefForm> beliefForm = new(
+        "--belief-form",
+        "Weight of a belief clause: ratio (the believed side's share, above 0.5) or normalised-difference (|p(T|E) - p(T|~E)| / (p(T|E) + p(T|~E)), near 0 for a barely integral statement).",
         Defaults.BeliefForm,
-        ("ratio", BeliefForm.Ratio), ("difference", BeliefForm.NormalisedDifference));
+        ("ratio", BeliefForm.Ratio), ("normalised-difference", BeliefForm.NormalisedDifference));
 
     private readonly Option<double> linkFloor = new("--link-floor")
     {
@@ -62,9 +62,9 @@ internal sealed class EngineOptions
 
     private readonly Choice<NliText> nliText = new(
         "--nli-text",
-        "Text scored by the NLI model for an explanation the model believes false: the statement, or its negation (negation-if-false).",
+        "Text scored by the NLI model for an explanation the model believes false: the statement, or its negation (negation-when-false).",
         Defaults.NliText,
-        ("statement", NliText.Statement), ("negation-if-false", NliText.NegationWhenFalse));
+        ("statement", NliText.Statement), ("negation-when-false", NliText.NegationWhenFalse));
 
     private readonly Choice<bool> cutOff = new(
         "--cut-off",
@@ -111,7 +111,7 @@ internal sealed class EngineOptions
         command.Options.Add(weighting.Option);
         command.Options.Add(contestedAt);
         command.Options.Add(integrityGap);
-        command.Options.Add(beliefWeight.Option);
+        command.Options.Add(beliefForm.Option);
         command.Options.Add(linkFloor);
         command.Options.Add(conflicts.Option);
         command.Options.Add(contradictions.Option);
@@ -129,7 +129,7 @@ internal sealed class EngineOptions
         Weighting = weighting.Read(parse),
         ContestedThreshold = parse.GetValue(contestedAt),
         IntegrityGap = parse.GetValue(integrityGap),
-        BeliefForm = beliefWeight.Read(parse),
+        BeliefForm = beliefForm.Read(parse),
         LinkFloor = parse.GetValue(linkFloor),
         Conflicts = conflicts.Read(parse),
         Contradictions = contradictions.Read(parse),

@@ -104,7 +104,7 @@ internal static class ReportJson
         json.WriteString("pairs_listed", ReportWords.Of(header.Listing));
         json.WriteStartObject("rules");
         json.WriteNumber("integrity_gap", ReportNumbers.Round(settings.IntegrityGap, "settings.rules.integrity_gap"));
-        json.WriteString("belief_weight", ReportWords.Of(settings.BeliefForm));
+        json.WriteString("belief_form", ReportWords.Of(settings.BeliefForm));
         json.WriteNumber("link_floor", ReportNumbers.Round(settings.LinkFloor, "settings.rules.link_floor"));
         json.WriteString("conflicts", ReportWords.Of(settings.Conflicts));
         json.WriteString("contradictions", ReportWords.Of(settings.Contradictions));
@@ -176,8 +176,8 @@ internal static class ReportJson
             json.WriteStartObject("stability");
             json.WriteNumber("trees", stability.Trees);
             json.WriteNumber("agreeing", stability.Agreeing);
-            json.WriteNumber("share", ReportNumbers.Round(stability.Share, $"{where}.stability.share"));
             json.WriteBoolean("tied", stability.Tied);
+            json.WriteNumber("share", ReportNumbers.Round(stability.Share, $"{where}.stability.share"));
             json.WriteEndObject();
         }
         else
@@ -212,20 +212,6 @@ internal static class ReportJson
 
         json.WriteEndArray();
 
-        json.WriteStartArray("conflicts");
-        foreach (var conflict in claim.Conflicts)
-        {
-            json.WriteStartObject();
-            json.WritePropertyName("entailment");
-            WriteLink(json, conflict.Entailment, $"{where}.conflicts");
-            json.WritePropertyName("contradiction");
-            WriteLink(json, conflict.Contradiction, $"{where}.conflicts");
-            json.WriteBoolean("dropped", conflict.Dropped);
-            json.WriteEndObject();
-        }
-
-        json.WriteEndArray();
-
         json.WriteStartArray("pairs");
         foreach (var pair in claim.Pairs)
         {
@@ -237,6 +223,23 @@ internal static class ReportJson
             WriteScores(json, pair.Forward, $"{where}.pairs.forward");
             json.WritePropertyName("backward");
             WriteScores(json, pair.Backward, $"{where}.pairs.backward");
+            json.WriteEndObject();
+        }
+
+        json.WriteEndArray();
+        json.WriteStartArray("conflicts");
+        foreach (var conflict in claim.Conflicts)
+        {
+            json.WriteStartObject();
+            json.WritePropertyName("entailment");
+            json.WriteStartObject();
+            WriteLinkBody(json, conflict.Entailment, where);
+            json.WriteEndObject();
+            json.WritePropertyName("contradiction");
+            json.WriteStartObject();
+            WriteLinkBody(json, conflict.Contradiction, where);
+            json.WriteEndObject();
+            json.WriteBoolean("dropped", conflict.Dropped);
             json.WriteEndObject();
         }
 
@@ -302,13 +305,18 @@ internal static class ReportJson
     private static void WriteLink(Utf8JsonWriter json, Link link, string where)
     {
         json.WriteStartObject();
+        WriteLinkBody(json, link, where);
+        json.WriteEndObject();
+    }
+
+    private static void WriteLinkBody(Utf8JsonWriter json, Link link, string where)
+    {
         json.WriteNumber("from", link.From);
         json.WriteNumber("to", link.To);
         json.WriteString("kind", ReportWords.Of(link.Kind));
         json.WriteNumber("probability", ReportNumbers.Round(link.Probability, $"{where}.links.probability"));
         json.WriteBoolean("from_negation", link.FromNegation);
         json.WriteBoolean("to_negation", link.ToNegation);
-        json.WriteEndObject();
     }
 
     private static void WriteScores(Utf8JsonWriter json, EntailmentScores scores, string where)

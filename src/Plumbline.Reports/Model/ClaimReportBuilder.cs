@@ -48,9 +48,9 @@ public static class ClaimReportBuilder
         {
             PairedDirectAnswer = verdict.PairedDirectAnswer,
             NormalisedMargin = verdict.NormalisedMargin,
-            Stability = verdict.Stability,
             Conflicts = verdict.Conflicts,
             CutOffDiscarded = verdict.CutOffDiscarded,
+            Stability = verdict.Stability,
         };
     }
 

@@ -73,15 +73,11 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         block.Append(" | ").Append(style.Status(claim.Status));
         if (claim.Status != ClaimStatus.Failed)
         {
-            block.Append(" | margin ").Append(ReportText.Weight(claim.Margin));
-            if (claim.NormalisedMargin > 0)
-            {
-                block.Append(" (normalised ").Append(ReportText.Weight(claim.NormalisedMargin)).Append(')');
-            }
-
+            block.Append(" | margin ").Append(ReportText.Weight(claim.Margin))
+                .Append(" (normalised ").Append(ReportText.Weight(claim.NormalisedMargin)).Append(')');
             if (claim.Stability is { } stability)
             {
-                block.Append(Invariant, $" | stable in {stability.Agreeing} of {stability.Trees} trees{(stability.Tied ? " (tied)" : "")}");
+                block.Append(" | ").Append(ReportText.Stability(stability));
             }
 
             if (claim.TwoSided)
@@ -99,7 +95,7 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         if (claim.Statements.Count > 0)
         {
             block.Append(Invariant, $"  tree: {claim.Statements.Count(s => s.Kept)} kept, {claim.PrunedCount} pruned, {claim.IntegralCount} integral")
-                .Append(claim.CutOffDiscarded > 0 ? string.Create(Invariant, $", {claim.CutOffDiscarded} cut-off explanation(s) discarded") : "")
+                .Append(claim.CutOffDiscarded > 0 ? string.Create(Invariant, $", {claim.CutOffDiscarded} cut off") : "")
                 .Append(" (value in the optimum T/F, - pruned; b = belief)\n");
             Outline(block, claim, claim.Statements[0], "    ", "    ");
         }
@@ -120,12 +116,10 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
 
         if (claim.Conflicts.Count > 0)
         {
-            block.Append("  conflicting pairs (entailment one way, contradiction the other)\n");
+            block.Append("  conflicting readings\n");
             foreach (var conflict in claim.Conflicts)
             {
-                block.Append(Invariant, $"    #{conflict.Entailment.From} entails #{conflict.Entailment.To} (p {ReportText.Belief(conflict.Entailment.Probability)}), ")
-                    .Append(Invariant, $"#{conflict.Contradiction.From} contradicts #{conflict.Contradiction.To} (p {ReportText.Belief(conflict.Contradiction.Probability)}): ")
-                    .Append(conflict.Dropped ? "both dropped" : "both kept").Append('\n');
+                block.Append("    ").Append(ReportText.Conflict(conflict)).Append('\n');
             }
         }
 
@@ -191,7 +185,7 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
             block.Append("    coherent accuracy ").Append(ReportText.Accuracy(coherent)).Append('\n');
             if (figures.PairedDirectAccuracy is { } paired)
             {
-                block.Append("    paired direct accuracy (p(claim) against p(negated claim)) ").Append(ReportText.Accuracy(paired)).Append('\n');
+                block.Append("    paired direct accuracy ").Append(ReportText.Accuracy(paired)).Append('\n');
             }
         }
         else
@@ -202,21 +196,20 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         block.Append(Invariant, $"    overturn rate {ReportText.Percent(figures.OverturnRate)} | contested rate {ReportText.Percent(figures.ContestedRate)}")
             .Append(Invariant, $" | two-sided rate {ReportText.Percent(figures.TwoSidedRate)} | mean margin {ReportText.Weight(figures.MeanMargin)}")
             .Append(Invariant, $" (normalised {ReportText.Weight(figures.MeanNormalisedMargin)})\n");
-        if (figures.MeanStability is { } meanStability)
+        if (figures.MeanStability is { } stability)
         {
-            block.Append(Invariant, $"    mean stability {ReportText.Percent(meanStability)} of sampled trees give the majority answer | {figures.StabilityTies} tied\n");
-        }
-
-        if (figures.ConflictingPairs > 0 || figures.CutOffDiscarded > 0 || figures.EstimatedClaims > 0)
-        {
-            block.Append(Invariant, $"    conflicting pairs {figures.ConflictingPairs} | cut-off explanations discarded {figures.CutOffDiscarded}")
-                .Append(Invariant, $" | claims with estimated probabilities {figures.EstimatedClaims}\n");
+            block.Append(Invariant, $"    mean stability {ReportText.Percent(stability)} of sampled trees give the majority answer | {figures.StabilityTies} tied\n");
         }
         block.Append(Invariant, $"    links found {figures.EntailmentLinks + figures.ContradictionLinks} ")
-            .Append(Invariant, $"({figures.EntailmentLinks} entailment, {figures.ContradictionLinks} contradiction)\n");
+            .Append(Invariant, $"({figures.EntailmentLinks} entailment, {figures.ContradictionLinks} contradiction)")
+            .Append(Invariant, $" | conflicting pairs {figures.ConflictingPairs} | cut-off explanations {figures.CutOffDiscarded}\n");
         block.Append(Invariant, $"    model calls {figures.ModelCalls} | tokens {figures.Tokens.Total} ")
             .Append(Invariant, $"({figures.Tokens.PromptTokens} prompt, {figures.Tokens.CompletionTokens} completion)")
             .Append(Invariant, $" | wall time {ReportText.Duration(figures.WallTime)}\n");
+        if (figures.EstimatedClaims > 0)
+        {
+            block.Append(Invariant, $"    beliefs estimated by sampling for {ReportText.Count(figures.EstimatedClaims, "claim")}\n");
+        }
         return block;
     }
 

@@ -79,7 +79,7 @@ public sealed class CheckCommandTests
     [InlineData("--format", "xml")]
     [InlineData("--integrity-gap", "1.5")]
     [InlineData("--integrity-gap", "-0.1")]
-    [InlineData("--belief-weight", "cube")]
+    [InlineData("--belief-form", "cube")]
     [InlineData("--link-floor", "1.2")]
     [InlineData("--conflicts", "ignore")]
     [InlineData("--contradictions", "twice")]
@@ -108,17 +108,17 @@ public sealed class CheckCommandTests
 
         var result = await Plumb.RunAsync(
             "check", TestClaims.Bats, "--model", "recording:" + recording, "--format", "json",
-            "--integrity-gap", "0.05", "--belief-weight", "difference", "--link-floor", "0.6", "--conflicts", "drop",
-            "--contradictions", "once-per-pair", "--nli-text", "negation-if-false", "--cut-off", "keep",
+            "--integrity-gap", "0.05", "--belief-form", "normalised-difference", "--link-floor", "0.6", "--conflicts", "drop",
+            "--contradictions", "once-per-pair", "--nli-text", "negation-when-false", "--cut-off", "keep",
             "--integral-claim", "stop", "--claim-belief", "on", "--direct-answer", "paired");
 
         Assert.True(result.ExitCode == 0, result.ToString());
         using var report = JsonDocument.Parse(result.Output);
         var rules = report.RootElement.GetProperty("settings").GetProperty("rules");
         Assert.Equal(0.05, rules.GetProperty("integrity_gap").GetDouble());
-        Assert.Equal("difference", rules.GetProperty("belief_weight").GetString());
+        Assert.Equal("normalised_difference", rules.GetProperty("belief_form").GetString());
         Assert.Equal(0.6, rules.GetProperty("link_floor").GetDouble());
-        Assert.Equal(("drop", "once_per_pair", "negation_if_false"), (rules.GetProperty("conflicts").GetString(), rules.GetProperty("contradictions").GetString(), rules.GetProperty("nli_text").GetString()));
+        Assert.Equal(("drop", "once_per_pair", "negation_when_false"), (rules.GetProperty("conflicts").GetString(), rules.GetProperty("contradictions").GetString(), rules.GetProperty("nli_text").GetString()));
         Assert.Equal((false, false, true), (rules.GetProperty("discard_cut_off").GetBoolean(), rules.GetProperty("expand_integral_claim").GetBoolean(), rules.GetProperty("claim_belief").GetBoolean()));
         Assert.Equal("paired", rules.GetProperty("direct_answer").GetString());
         // The claim (0.9 against 0.1 for its negation) is integral at once, so with --integral-claim stop it is

@@ -32,7 +32,7 @@ public sealed class RootCommandTests
         foreach (var option in new[]
         {
             "--model", "--nli-model", "--negation", "--weighting", "--contested-at", "--export-wcnf", "--format", "--output",
-            "--integrity-gap", "--belief-weight", "--link-floor", "--conflicts", "--contradictions", "--nli-text", "--cut-off",
+            "--integrity-gap", "--belief-form", "--link-floor", "--conflicts", "--contradictions", "--nli-text", "--cut-off",
             "--integral-claim", "--claim-belief", "--direct-answer", "--samples",
         })
         {

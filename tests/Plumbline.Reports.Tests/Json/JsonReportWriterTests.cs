@@ -1,8 +1,9 @@
 using System.Text.Json;
 using Plumbline.Core.Coherence;
+using Plumbline.Core.Entailment;
 using Plumbline.Core.Runs;
-using Plumbline.Reports.Model;
 using Plumbline.Reports.Json;
+using Plumbline.Reports.Model;
 using Plumbline.Reports.Tests.Fixtures;
 using Plumbline.Reports.Tests.Schema;
 
@@ -57,53 +58,25 @@ public sealed class JsonReportWriterTests
 
         string[] expected =
         [
-            "id", "claim", "gold", "tags", "answer", "direct_answer", "paired_direct_answer", "status", "margin",
-            "normalised_margin", "stability", "two_sided", "probabilities_estimated", "counts", "statements", "links",
-            "conflicts", "pairs", "falsified_clauses", "deciding_clauses", "solve_status", "objective_cost", "model_calls",
-            "tokens", "timings_ms", "error",
+            "id", "claim", "gold", "tags", "answer", "direct_answer", "paired_direct_answer", "status", "margin", "normalised_margin", "stability", "two_sided",
+            "probabilities_estimated", "counts", "statements", "links", "pairs", "conflicts", "falsified_clauses", "deciding_clauses", "solve_status",
+            "objective_cost", "model_calls", "tokens", "timings_ms", "error",
         ];
         Assert.Equal(expected, Claim(document, 0).EnumerateObject().Select(p => p.Name));
     }
 
     [Fact]
-    public async Task WriteAsync_EngineExtras_WrittenAsComputedByHandAndValid()
+    public async Task WriteAsync_LinkScoredOnANegation_FlagsTheNegatedSide()
     {
-        var json = await ReportOutput.TextAsync(new JsonReportWriter(), SampleReports.WithEngineExtras());
+        var verdict = SampleReports.Settled with { Links = [new Link(2, 0, EntailmentKind.Contradiction, 0.95, FromNegation: true)] };
+        var json = await ReportOutput.TextAsync(new JsonReportWriter(), SampleReports.Report([verdict], SampleReports.Started.AddSeconds(1)));
         using var document = JsonDocument.Parse(json);
-        var claim = Claim(document, 0);
 
+        var link = Claim(document, 0).GetProperty("links")[0];
+        Assert.True(link.GetProperty("from_negation").GetBoolean());
+        Assert.False(link.GetProperty("to_negation").GetBoolean());
         var results = ReportSchemaFile.Evaluate(json);
         Assert.True(results.IsValid, ReportSchemaFile.Describe(results));
-        Assert.False(claim.GetProperty("paired_direct_answer").GetBoolean());
-        // 1.23456 / 3.5 = 0.352731..., four decimals.
-        Assert.Equal("0.3527", claim.GetProperty("normalised_margin").GetRawText());
-        var stability = claim.GetProperty("stability");
-        Assert.Equal("0.6667", stability.GetProperty("share").GetRawText());
-        Assert.Equal((3, 2, false), (stability.GetProperty("trees").GetInt32(), stability.GetProperty("agreeing").GetInt32(), stability.GetProperty("tied").GetBoolean()));
-        Assert.Equal([true, true, false, null], claim.GetProperty("statements").EnumerateArray().Select(s => s.GetProperty("value").ValueKind == JsonValueKind.Null ? (bool?)null : s.GetProperty("value").GetBoolean()));
-        var conflict = claim.GetProperty("conflicts")[0];
-        Assert.True(conflict.GetProperty("dropped").GetBoolean());
-        Assert.Equal("0.6123", conflict.GetProperty("entailment").GetProperty("probability").GetRawText());
-        Assert.True(conflict.GetProperty("contradiction").GetProperty("to_negation").GetBoolean());
-        Assert.Equal(2, claim.GetProperty("counts").GetProperty("cut_off_discarded").GetInt32());
-        var figures = document.RootElement.GetProperty("figures");
-        Assert.Equal("0.6667", figures.GetProperty("mean_stability").GetRawText());
-        Assert.Equal((1, 2), (figures.GetProperty("conflicting_pairs").GetInt32(), figures.GetProperty("cut_off_discarded").GetInt32()));
-        // The settled claim's gold is true and its paired direct answer false: 0 of 1.
-        Assert.Equal(0, figures.GetProperty("paired_direct_accuracy").GetProperty("correct").GetInt32());
-    }
-
-    [Fact]
-    public async Task WriteAsync_Settings_CarryTheEngineRules()
-    {
-        using var document = await WriteAsync(SampleReports.Mixed());
-        var rules = document.RootElement.GetProperty("settings").GetProperty("rules");
-
-        Assert.Equal(
-            ["integrity_gap", "belief_weight", "link_floor", "conflicts", "contradictions", "nli_text", "discard_cut_off", "expand_integral_claim", "claim_belief", "direct_answer", "samples"],
-            rules.EnumerateObject().Select(p => p.Name));
-        Assert.Equal(CoherenceOptions.Default.Samples, rules.GetProperty("samples").GetInt32());
-        Assert.Equal(CoherenceOptions.Default.DiscardCutOff, rules.GetProperty("discard_cut_off").GetBoolean());
     }
 
     [Fact]
@@ -347,6 +320,28 @@ public sealed class JsonReportWriterTests
         Assert.Equal(["c4", "c5"], written.GetProperty("not_judged").EnumerateArray().Select(e => e.GetString()));
         Assert.Equal("input", written.GetProperty("problems")[0].GetProperty("source").GetString());
         Assert.True(ReportSchemaFile.Evaluate(json).IsValid, ReportSchemaFile.Describe(ReportSchemaFile.Evaluate(json)));
+    }
+
+    [Fact]
+    public async Task WriteAsync_MethodFields_StabilityNormalisedMarginConflictsAndCutOffs()
+    {
+        using var document = await WriteAsync(SampleReports.Mixed());
+        var (settled, overturned, figures) = (Claim(document, 0), Claim(document, 1), document.RootElement.GetProperty("figures"));
+
+        Assert.Equal("0.3086", settled.GetProperty("normalised_margin").GetRawText());
+        Assert.Equal((3, 2, false), (settled.GetProperty("stability").GetProperty("trees").GetInt32(),
+            settled.GetProperty("stability").GetProperty("agreeing").GetInt32(), settled.GetProperty("stability").GetProperty("tied").GetBoolean()));
+        Assert.Equal(JsonValueKind.Null, overturned.GetProperty("stability").ValueKind);
+        Assert.False(overturned.GetProperty("paired_direct_answer").GetBoolean());
+        var conflict = Assert.Single(overturned.GetProperty("conflicts").EnumerateArray());
+        Assert.True(conflict.GetProperty("dropped").GetBoolean());
+        Assert.Equal((1, 0), (conflict.GetProperty("contradiction").GetProperty("from").GetInt32(), conflict.GetProperty("contradiction").GetProperty("to").GetInt32()));
+        Assert.Equal(1, settled.GetProperty("counts").GetProperty("cut_off_discarded").GetInt32());
+        // (0.30864 + 0.125) / 2 = 0.21682; stability 2 / 3 on the one claim that sampled trees.
+        Assert.Equal("0.2168", figures.GetProperty("mean_normalised_margin").GetRawText());
+        Assert.Equal("0.6667", figures.GetProperty("mean_stability").GetRawText());
+        Assert.Equal((1, 1, 1), (figures.GetProperty("conflicting_pairs").GetInt32(), figures.GetProperty("cut_off_discarded").GetInt32(),
+            figures.GetProperty("estimated_claims").GetInt32()));
     }
 
     [Fact]

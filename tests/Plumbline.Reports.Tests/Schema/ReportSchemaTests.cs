@@ -35,11 +35,6 @@ public sealed class ReportSchemaTests
         ["gate without result"] = r => r["gates"] = new JsonArray(new JsonObject { ["name"] = "g", ["value"] = 1, ["comparison"] = ">=", ["threshold"] = 1 }),
         ["notice missing"] = r => r.Remove("notice"),
         ["weighting unknown"] = r => r["settings"]!["weighting"] = "heavy",
-        ["belief weight unknown"] = r => r["settings"]!["rules"]!["belief_weight"] = "cube",
-        ["samples zero"] = r => r["settings"]!["rules"]!["samples"] = 0,
-        ["statement value as string"] = r => Claim(r, 0)["statements"]![0]!["value"] = "yes",
-        ["normalised margin above one"] = r => Claim(r, 0)["normalised_margin"] = 1.5,
-        ["stability without share"] = r => Claim(r, 0)["stability"] = new JsonObject { ["trees"] = 3, ["agreeing"] = 2, ["tied"] = false },
         ["link without negation flags"] = r => ((JsonObject)Claim(r, 0)["links"]![0]!).Remove("from_negation"),
         ["accuracy without interval"] = r => ((JsonObject)r["figures"]!["direct_accuracy"]!).Remove("wilson_95"),
     };
