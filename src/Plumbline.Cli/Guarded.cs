@@ -1,6 +1,5 @@
 using Plumbline.Core.Inputs;
 using Plumbline.Core.Language.Sources;
-using Plumbline.LocalModel;
 using Plumbline.Models.Cache;
 using Plumbline.Nli;
 
@@ -41,7 +40,6 @@ internal static class Guarded
     {
         UsageException or InputFormatException or NliModelException or ModelSourceException or ResponseCacheException
             or Reports.ReportReadException => e.Message,
-        LocalModelException => $"--model: {e.Message}",
         FileNotFoundException notFound => $"{notFound.FileName ?? "file"}: file not found",
         DirectoryNotFoundException or UnauthorizedAccessException or IOException => e.Message,
         _ => null,

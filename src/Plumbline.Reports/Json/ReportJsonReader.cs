@@ -240,8 +240,13 @@ public static partial class ReportJsonReader
         };
     }
 
-    private static Link LinkOf(JsonField link) =>
-        new(link["from"].Int(), link["to"].Int(), link["kind"].Word<EntailmentKind>(ReportWords.Of), link["probability"].Number());
+    private static Link LinkOf(JsonField link) => new(
+        link["from"].Int(),
+        link["to"].Int(),
+        link["kind"].Word<EntailmentKind>(ReportWords.Of),
+        link["probability"].Number(),
+        link["from_negation"].Bool(),
+        link["to_negation"].Bool());
 
     private static EntailmentScores ScoresOf(JsonField scores) =>
         new(scores["entailment"].Number(), scores["neutral"].Number(), scores["contradiction"].Number());
