@@ -18,6 +18,7 @@ internal static class PlumbCli
         root.Subcommands.Add(SolveCommand.Create(context, composition));
         root.Subcommands.Add(NliCommand.Create(context, composition));
         root.Subcommands.Add(CacheCommand.Create(context, composition));
+        root.Subcommands.Add(CompareCommand.Create(context, composition));
         root.Subcommands.Add(MergeCommand.Create(context, composition));
         return root;
     }

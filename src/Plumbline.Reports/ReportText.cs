@@ -23,6 +23,9 @@ internal static class ReportText
         ? ReportNumbers.Milliseconds(span).ToString("0.#", Invariant) + " ms"
         : span.TotalSeconds.ToString("0.0", Invariant) + " s";
 
+    /// <summary>A p-value: four decimals, or "&lt; 0.0001" below that.</summary>
+    public static string PValue(double p) => p < 0.0001 ? "< 0.0001" : ReportNumbers.Round(p, "p").ToString("0.0000", Invariant);
+
     public static string Count(int n, string noun) => n == 1 ? $"1 {noun}" : string.Create(Invariant, $"{n} {noun}s");
 
     public static string Accuracy(Proportion p) =>

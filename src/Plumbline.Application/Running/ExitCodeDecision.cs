@@ -1,4 +1,5 @@
 using Plumbline.Core.Runs;
+using Plumbline.Reports.Comparison;
 using Plumbline.Reports.Model;
 
 namespace Plumbline.Application.Running;
@@ -8,7 +9,8 @@ namespace Plumbline.Application.Running;
 /// outranks a failed gate (1): gates checked on part of the claims say little, and a CI job must see that the run
 /// itself did not finish. Failed claims make a run incomplete, unless the run set a <c>max_failed</c> gate: then
 /// that gate decides about them (a few failed claims within the limit pass; more fail the gate, exit 1), while an
-/// interruption, a halted budget, unread claims or a failing report still make the run incomplete.
+/// interruption, a halted budget, unread claims or a failing report still make the run incomplete. A comparison of
+/// two runs exits with 1 when its regression gate fails, else 0.
 /// </summary>
 public static class ExitCodeDecision
 {
@@ -34,5 +36,12 @@ public static class ExitCodeDecision
         }
 
         return report.GatesPassed ? ExitCodes.Success : ExitCodes.GateFailed;
+    }
+
+    /// <summary>The exit code of <c>plumb compare</c>.</summary>
+    public static int Of(ComparisonReport comparison)
+    {
+        ArgumentNullException.ThrowIfNull(comparison);
+        return comparison.Gate is { Passed: false } ? ExitCodes.GateFailed : ExitCodes.Success;
     }
 }

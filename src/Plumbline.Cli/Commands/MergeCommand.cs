@@ -3,6 +3,7 @@ using Plumbline.Application.Running;
 using Plumbline.Application.Shards;
 using Plumbline.Cli.Composition;
 using Plumbline.Cli.Options;
+using Plumbline.Cli.Running;
 using Plumbline.Reports;
 using Plumbline.Reports.Json;
 
@@ -44,16 +45,7 @@ internal static class MergeCommand
 
             var merged = await ShardMerge.MergeAsync(shards, given.Count > 0 ? given : null, cancellationToken);
             var writer = root.Reports.Create(target.Format, new ReportOptions(Colour: target.Path is null && context.ColourTerminal));
-            if (target.Path is { } path)
-            {
-                await using var file = new FileStream(path, FileMode.Create, FileAccess.Write, FileShare.Read);
-                await writer.WriteAsync(merged, file, cancellationToken);
-            }
-            else
-            {
-                await using var stream = context.StandardOutput();
-                await writer.WriteAsync(merged, stream, cancellationToken);
-            }
+            await ResultDestination.WriteAsync(target.Path, context.StandardOutput, stream => writer.WriteAsync(merged, stream, cancellationToken));
 
             await context.Error.WriteLineAsync(CliErrors.Line(
                 $"merged {shards.Count} shard report(s): {merged.Figures.Claims} of {merged.Header.Input!.Claims} claims judged"));

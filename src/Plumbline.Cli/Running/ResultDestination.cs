@@ -16,4 +16,13 @@ internal static class ResultDestination
         await output.WriteAsync(text.AsMemory(), cancellationToken);
         await output.FlushAsync(cancellationToken);
     }
+
+    /// <summary>Writes a rendered document (a merged report, a comparison) to a file, or to standard output as bytes.</summary>
+    public static async Task WriteAsync(string? path, Func<Stream> standardOutput, Func<Stream, Task> write)
+    {
+        await using var stream = path is null
+            ? standardOutput()
+            : new FileStream(path, FileMode.Create, FileAccess.Write, FileShare.Read);
+        await write(stream);
+    }
 }

@@ -458,7 +458,7 @@ internal static class ReportJson
         json.WriteEndObject();
     }
 
-    private static void WriteNullable(Utf8JsonWriter json, string name, bool? value)
+    internal static void WriteNullable(Utf8JsonWriter json, string name, bool? value)
     {
         if (value is { } v)
         {
@@ -470,7 +470,7 @@ internal static class ReportJson
         }
     }
 
-    private static void WriteNullable(Utf8JsonWriter json, string name, double? value, string field)
+    internal static void WriteNullable(Utf8JsonWriter json, string name, double? value, string field)
     {
         if (value is { } v)
         {
@@ -482,7 +482,7 @@ internal static class ReportJson
         }
     }
 
-    private static void WriteNullable(Utf8JsonWriter json, string name, string? value)
+    internal static void WriteNullable(Utf8JsonWriter json, string name, string? value)
     {
         if (value is null)
         {
