@@ -47,6 +47,11 @@ internal sealed class JsonFields(string file, JsonElement root)
             ? value.ValueKind == JsonValueKind.Number && value.TryGetInt64(out var number) ? number : throw Wrong(name, "a whole number")
             : null;
 
+    public double? Number(string name) =>
+        Field(name) is { } value
+            ? value.ValueKind == JsonValueKind.Number ? value.GetDouble() : throw Wrong(name, "a number")
+            : null;
+
     public IReadOnlyList<string>? Strings(string name)
     {
         if (Field(name) is not { } value)

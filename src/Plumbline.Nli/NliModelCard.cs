@@ -14,6 +14,8 @@ namespace Plumbline.Nli;
 /// <param name="Labels">The model's output classes, in output order.</param>
 /// <param name="OutputName">Graph output holding the logits; null means the first output.</param>
 /// <param name="SourceFile">The file these facts were read from.</param>
+/// <param name="Temperature">Logits are divided by this before the softmax (temperature scaling fitted on held-out
+/// pairs, so the probabilities mean what they say); 1 when the model states none.</param>
 public sealed record NliModelCard(
     string Name,
     string Architecture,
@@ -24,4 +26,5 @@ public sealed record NliModelCard(
     int MaxLength,
     IReadOnlyList<string> Labels,
     string? OutputName,
-    string SourceFile);
+    string SourceFile,
+    double Temperature = 1.0);

@@ -57,7 +57,8 @@ internal static class NliModelCardReader
             MaxLength(card, "max_length", card.Integer("max_length") ?? DefaultMaxLength),
             labels,
             card.String("output"),
-            card.File);
+            card.File,
+            card.Number("temperature") ?? 1.0);
     }
 
     private static NliModelCard FromConfig(string directory, JsonFields config)
