@@ -47,6 +47,10 @@ internal sealed class JsonFields(string file, JsonElement root)
             ? value.ValueKind == JsonValueKind.Number && value.TryGetInt64(out var number) ? number : throw Wrong(name, "a whole number")
             : null;
 
+<<<<<<< HEAD
+=======
+    /// <summary>Any number, however large (configs write 1e30-sized sentinels where a whole number would overflow).</summary>
+>>>>>>> main
     public double? Number(string name) =>
         Field(name) is { } value
             ? value.ValueKind == JsonValueKind.Number ? value.GetDouble() : throw Wrong(name, "a number")
@@ -91,16 +95,35 @@ internal sealed class JsonFields(string file, JsonElement root)
             }
         }
 
-        if (byIndex.Keys.Select((key, position) => key != position).Any(gap => gap))
+        return Consecutive(name, byIndex);
+    }
+
+    /// <summary>An object of whole-number values 0..n-1 keyed by name (as config.json label2id is), as the names in value order.</summary>
+    public IReadOnlyList<string>? IndexedKeys(string name)
+    {
+        if (Field(name) is not { } value)
         {
-            throw Wrong(name, "numbered 0 to n-1 without gaps");
+            return null;
         }
 
-        return byIndex.Values.ToArray();
+        var byIndex = new SortedDictionary<int, string>();
+        if (value.ValueKind != JsonValueKind.Object
+            || value.EnumerateObject().Any(property => property.Value.ValueKind != JsonValueKind.Number
+                || !property.Value.TryGetInt32(out var index) || !byIndex.TryAdd(index, property.Name)))
+        {
+            throw Wrong(name, "an object mapping label names to 0, 1, 2");
+        }
+
+        return Consecutive(name, byIndex);
     }
 
     public NliModelException Wrong(string name, string expected) =>
         new(file, $"field '{name}' must be {expected}");
+
+    private IReadOnlyList<string> Consecutive(string name, SortedDictionary<int, string> byIndex) =>
+        byIndex.Keys.Select((key, position) => key != position).Any(gap => gap)
+            ? throw Wrong(name, "numbered 0 to n-1 without gaps")
+            : byIndex.Values.ToArray();
 
     private JsonElement? Field(string name) =>
         root.TryGetProperty(name, out var value) && value.ValueKind != JsonValueKind.Null ? value : null;

@@ -77,6 +77,7 @@ public sealed class NliModel : IDisposable
         try
         {
             var inputs = ModelInputs.Of(session.InputMetadata, modelFile);
+            PairEncoders.CheckSegments(encoder, inputs, card, modelFile);
             var outputName = CheckOutput(session, card, modelFile);
             var labels = LabelOrder.From(card.Labels, card.SourceFile, card.Temperature);
             return new NliModel(card, modelFile, hashing.GetAwaiter().GetResult(), session, encoder, inputs, outputName, labels);

@@ -1,10 +1,12 @@
+using System.Text.RegularExpressions;
+
 namespace Plumbline.Nli;
 
 /// <summary>
 /// Reads the description of a model directory: our nli-model.json first; failing that a config.json
 /// with id2label as exported alongside most sequence-pair classifiers.
 /// </summary>
-internal static class NliModelCardReader
+internal static partial class NliModelCardReader
 {
     public const string CardFileName = "nli-model.json";
     public const string ConfigFileName = "config.json";
@@ -12,6 +14,10 @@ internal static class NliModelCardReader
     public const string WordPieceVocabulary = "vocab.txt";
     public const string BpeVocabulary = "vocab.json";
     public const string BpeMerges = "merges.txt";
+    public const string FastTokenizerFile = "tokenizer.json";
+
+    /// <summary>SentencePiece model file names as exports ship them (DeBERTa-v2/v3; XLM-R; ALBERT and T5; others).</summary>
+    public static readonly IReadOnlyList<string> SentencePieceModels = ["spm.model", "sentencepiece.bpe.model", "spiece.model", "tokenizer.model"];
 
     // Encoders of the BERT family are trained with at most 512 positions (common practice).
     private const int DefaultMaxLength = 512;
@@ -27,26 +33,29 @@ internal static class NliModelCardReader
         }
 
         var cardFile = Path.Combine(directory, CardFileName);
+        var configFile = Path.Combine(directory, ConfigFileName);
+        var config = File.Exists(configFile) ? JsonFields.Parse(configFile) : null;
         if (File.Exists(cardFile))
         {
-            return FromCard(directory, JsonFields.Parse(cardFile));
+            return FromCard(directory, JsonFields.Parse(cardFile), config);
         }
 
-        var configFile = Path.Combine(directory, ConfigFileName);
-        if (File.Exists(configFile))
+        if (config is not null)
         {
-            return FromConfig(directory, JsonFields.Parse(configFile));
+            return FromConfig(directory, config);
         }
 
         throw new NliModelException(directory, $"no {CardFileName} or {ConfigFileName} describing the model");
     }
 
-    private static NliModelCard FromCard(string directory, JsonFields card)
+    /// <summary>Our card; a config.json beside it supplies the labels when the card has none, and the embedding sizes.</summary>
+    private static NliModelCard FromCard(string directory, JsonFields card, JsonFields? config)
     {
         var tokenizer = card.String("tokenizer") is { } named ? ParseTokenizer(card, named) : DetectTokenizer(directory);
-        var vocabulary = card.String("vocabulary") ?? DefaultVocabulary(tokenizer);
+        var vocabulary = card.String("vocabulary") ?? DefaultVocabulary(directory, tokenizer);
         var merges = tokenizer == NliTokenizerKind.ByteLevelBpe ? card.String("merges") ?? BpeMerges : null;
-        var labels = card.Strings("labels") ?? throw card.Wrong("labels", "present: the output classes in order");
+        var labels = card.Strings("labels") ?? (config is null ? null : ConfigLabels(config))
+            ?? throw card.Wrong("labels", $"present (or {ConfigFileName} with id2label beside it): the output classes in order");
         return new NliModelCard(
             card.String("name") ?? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(directory))),
             card.String("architecture") ?? "bert",
@@ -58,7 +67,13 @@ internal static class NliModelCardReader
             labels,
             card.String("output"),
             card.File,
+<<<<<<< HEAD
             card.Number("temperature") ?? 1.0);
+=======
+            config?.Integer("vocab_size"),
+            config?.Integer("type_vocab_size"),
+            config?.Integer("pad_token_id"));
+>>>>>>> main
     }
 
     private static NliModelCard FromConfig(string directory, JsonFields config)
@@ -66,6 +81,12 @@ internal static class NliModelCardReader
         var tokenizer = DetectTokenizer(directory);
         var tokenizerConfigFile = Path.Combine(directory, TokenizerConfigFileName);
         var tokenizerConfig = File.Exists(tokenizerConfigFile) ? JsonFields.Parse(tokenizerConfigFile) : null;
+
+        // DeBERTa-v2 tokenizers can split punctuation before SentencePiece; v3 exports turn that off.
+        if (tokenizerConfig?.Bool("split_by_punct") == true)
+        {
+            throw tokenizerConfig.Wrong("split_by_punct", "false: splitting punctuation before SentencePiece is not supported");
+        }
         var architecture = config.String("model_type") ?? "bert";
 
         // RoBERTa-style position tables reserve two rows before the first real position.
@@ -77,42 +98,101 @@ internal static class NliModelCardReader
         }
 
         // Tokenizer configs write a huge sentinel when there is no limit; only a real limit counts.
-        if (tokenizerConfig?.Integer("model_max_length") is { } tokenizerLimit && tokenizerLimit is > 0 and < 1_000_000)
+        if (tokenizerConfig?.Number("model_max_length") is { } tokenizerLimit && tokenizerLimit is > 0 and < 1_000_000)
         {
-            maxLength = Math.Min(maxLength, tokenizerLimit);
+            maxLength = Math.Min(maxLength, (long)tokenizerLimit);
         }
 
         var lowerCase = config.Bool("do_lower_case") ?? tokenizerConfig?.Bool("do_lower_case")
             ?? tokenizer == NliTokenizerKind.WordPiece;
-        var labels = config.IndexedStrings("id2label") ?? throw config.Wrong("id2label", "present: the output classes by index");
+        var labels = ConfigLabels(config) ?? throw config.Wrong("id2label", "present: the output classes by index");
         return new NliModelCard(
             config.String("_name_or_path") is { Length: > 0 } name ? name : Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(directory))),
             architecture,
             tokenizer,
-            Path.GetFullPath(Path.Combine(directory, DefaultVocabulary(tokenizer))),
+            Path.GetFullPath(Path.Combine(directory, DefaultVocabulary(directory, tokenizer))),
             tokenizer == NliTokenizerKind.ByteLevelBpe ? Path.GetFullPath(Path.Combine(directory, BpeMerges)) : null,
             lowerCase,
             MaxLength(config, "max_position_embeddings", maxLength),
             labels,
             null,
-            config.File);
+            config.File,
+            config.Integer("vocab_size"),
+            config.Integer("type_vocab_size"),
+            config.Integer("pad_token_id"));
     }
+
+    /// <summary>
+    /// Output classes in order from id2label, or else from label2id. Generic names (LABEL_0, ...) are refused:
+    /// only the model's own documentation says which is which.
+    /// </summary>
+    private static IReadOnlyList<string>? ConfigLabels(JsonFields config)
+    {
+        var labels = config.IndexedStrings("id2label") ?? config.IndexedKeys("label2id");
+        if (labels is not null && labels.All(label => GenericLabel().IsMatch(label)))
+        {
+            throw new NliModelException(config.File, $"id2label names only generic classes [{string.Join(", ", labels)}]; write {CardFileName} beside it with \"labels\" in output order, as the model's documentation gives them");
+        }
+
+        return labels;
+    }
+
+    [GeneratedRegex(@"^LABEL_\d+$", RegexOptions.IgnoreCase)]
+    private static partial Regex GenericLabel();
 
     private static NliTokenizerKind ParseTokenizer(JsonFields card, string name) => name.ToLowerInvariant() switch
     {
         "wordpiece" => NliTokenizerKind.WordPiece,
         "bpe" or "byte-level-bpe" => NliTokenizerKind.ByteLevelBpe,
-        _ => throw card.Wrong("tokenizer", "\"wordpiece\" or \"bpe\""),
+        "sentencepiece" => NliTokenizerKind.SentencePiece,
+        _ => throw card.Wrong("tokenizer", "\"wordpiece\", \"bpe\" or \"sentencepiece\""),
     };
 
-    // With neither vocabulary present, WordPiece is assumed so that the error names vocab.txt.
-    private static NliTokenizerKind DetectTokenizer(string directory) =>
-        !File.Exists(Path.Combine(directory, WordPieceVocabulary)) && File.Exists(Path.Combine(directory, BpeVocabulary))
-            ? NliTokenizerKind.ByteLevelBpe
-            : NliTokenizerKind.WordPiece;
+    private static NliTokenizerKind DetectTokenizer(string directory)
+    {
+        if (File.Exists(Path.Combine(directory, WordPieceVocabulary)))
+        {
+            return NliTokenizerKind.WordPiece;
+        }
 
-    private static string DefaultVocabulary(NliTokenizerKind tokenizer) =>
-        tokenizer == NliTokenizerKind.WordPiece ? WordPieceVocabulary : BpeVocabulary;
+        if (File.Exists(Path.Combine(directory, BpeVocabulary)))
+        {
+            return NliTokenizerKind.ByteLevelBpe;
+        }
+
+        if (SentencePieceModel(directory) is not null)
+        {
+            return NliTokenizerKind.SentencePiece;
+        }
+
+        var fastTokenizer = Path.Combine(directory, FastTokenizerFile);
+        if (File.Exists(fastTokenizer))
+        {
+            throw new NliModelException(fastTokenizer, $"is not read on its own; copy the tokenizer's own files beside it: {WordPieceVocabulary} (WordPiece), {BpeVocabulary} and {BpeMerges} (byte-level BPE) or the SentencePiece model ({string.Join(", ", SentencePieceModels)})");
+        }
+
+        // With no vocabulary at all, WordPiece is assumed so that the error names vocab.txt.
+        return NliTokenizerKind.WordPiece;
+    }
+
+    /// <summary>The first of the usual SentencePiece file names present, else the folder's only *.model file.</summary>
+    private static string? SentencePieceModel(string directory)
+    {
+        if (SentencePieceModels.FirstOrDefault(name => File.Exists(Path.Combine(directory, name))) is { } known)
+        {
+            return known;
+        }
+
+        var models = Directory.GetFiles(directory, "*.model");
+        return models.Length == 1 ? Path.GetFileName(models[0]) : null;
+    }
+
+    private static string DefaultVocabulary(string directory, NliTokenizerKind tokenizer) => tokenizer switch
+    {
+        NliTokenizerKind.ByteLevelBpe => BpeVocabulary,
+        NliTokenizerKind.SentencePiece => SentencePieceModel(directory) ?? SentencePieceModels[0],
+        _ => WordPieceVocabulary,
+    };
 
     private static int MaxLength(JsonFields file, string field, long value) =>
         value is >= SmallestMaxLength and <= DefaultMaxLength * 64

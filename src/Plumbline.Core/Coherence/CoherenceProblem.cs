@@ -4,12 +4,12 @@ namespace Plumbline.Core.Coherence;
 
 /// <summary>The MAX-SAT problem of one claim, with enough context to read its solution and export it.</summary>
 /// <param name="Problem">Clauses with integer weights (real weight × <see cref="Scale"/>, rounded).</param>
-/// <param name="Origins">For each clause, in order, why it exists ("belief: #3", "#2 entails #5", "#2 contradicts #5").</param>
+/// <param name="Origins">For each clause, in order, why it exists.</param>
 /// <param name="StatementOfVariable">Statement id of variable v at index v - 1.</param>
 /// <param name="Scale">The weight scale used.</param>
 public sealed record CoherenceProblem(
     MaxSatProblem Problem,
-    IReadOnlyList<string> Origins,
+    IReadOnlyList<ClauseOrigin> Origins,
     IReadOnlyList<int> StatementOfVariable,
     int Scale)
 {

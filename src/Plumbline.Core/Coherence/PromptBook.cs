@@ -1,4 +1,5 @@
 using System.Text;
+using Plumbline.Core.Language;
 
 namespace Plumbline.Core.Coherence;
 
@@ -77,6 +78,14 @@ public static class PromptBook
 
         return prompt.Append("Q: ").Append(AsQuestion(statement)).Append(" True or False?\nA:").ToString();
     }
+
+    /// <summary>The prompt of a generation request, as the engine renders it for that purpose.</summary>
+    public static string Render(GenerationPurpose purpose, string subject, bool? answer) => purpose switch
+    {
+        GenerationPurpose.Abduction => Abduction(subject, answer ?? throw new ArgumentException("an abduction is written for an answer", nameof(answer))),
+        GenerationPurpose.Negation => Negation(subject),
+        _ => throw new ArgumentOutOfRangeException(nameof(purpose), purpose, "unknown generation purpose"),
+    };
 
     /// <summary>The fixed-prefix negation: "It is not true that &lt;statement&gt;."</summary>
     public static string PrefixNegation(string statement)

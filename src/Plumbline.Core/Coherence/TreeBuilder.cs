@@ -8,10 +8,16 @@ namespace Plumbline.Core.Coherence;
 /// go out together (all abductions, then all negations, then all answer probabilities), because a
 /// remote model's latency, not our work, dominates the time of a claim.
 /// </summary>
-internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, NegationMode negationMode)
+internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, NegationMode negationMode, TreeRules? rules = null)
 {
-    public async Task<BuiltTree> BuildAsync(string claimText, CallMeter meter, CancellationToken cancellationToken)
+    private readonly TreeRules rules = rules ?? TreeRules.Plain;
+
+    /// <param name="sampleIndex">Which independent tree of the claim this is; it goes on every sampled
+    /// request, so that each tree draws its own explanations. Greedy requests and answer probabilities are
+    /// the same for every tree and keep index 0, so a cache answers them once.</param>
+    public async Task<BuiltTree> BuildAsync(string claimText, CallMeter meter, CancellationToken cancellationToken, int sampleIndex = 0)
     {
+        ArgumentOutOfRangeException.ThrowIfNegative(sampleIndex);
         var statements = new List<Statement>();
         var keys = new Dictionary<StatementKey, int>();
         var root = new Draft(0, claimText.Trim(), 0, null, null);
@@ -20,18 +26,43 @@ internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, Negatio
         var (evaluatedRoot, rootAnswers) = await EvaluateAsync([root], meter, cancellationToken);
         statements.AddRange(evaluatedRoot);
 
-        // The root is expanded whatever its integrity: it is the question being asked.
-        IReadOnlyList<Statement> toExpand = evaluatedRoot;
+        // The root is expanded whatever its integrity (it is the question being asked), unless the rules
+        // say an integral claim is answered by its own belief.
+        IReadOnlyList<Statement> toExpand = rules.ExpandIntegralClaim || !evaluatedRoot[0].IsIntegral ? evaluatedRoot : [];
+        var cutOff = 0;
         for (var depth = 1; depth <= shape.MaxDepth && toExpand.Count > 0; depth++)
         {
-            var drafts = await AbduceAsync(toExpand, depth, statements.Count, keys, meter, cancellationToken);
+            var (drafts, discarded) = await AbduceAsync(toExpand, depth, statements.Count, keys, sampleIndex, meter, cancellationToken);
+            cutOff += discarded;
             var (evaluated, _) = await EvaluateAsync(drafts, meter, cancellationToken);
             statements.AddRange(evaluated);
             toExpand = [.. evaluated.Where(s => !s.IsIntegral)];
         }
 
-        return new BuiltTree(new ExplanationTree(Prune(statements)), rootAnswers[0].Answer);
+        var rootStatement = evaluatedRoot[0];
+        var direct = rootAnswers[0].Answer;
+        var paired = rootStatement.PTrue == rootStatement.PTrueOfNegation ? direct : rootStatement.PTrue > rootStatement.PTrueOfNegation;
+        return new BuiltTree(new ExplanationTree(Prune(statements)), direct, paired, cutOff);
     }
+
+    /// <summary>
+    /// True when a cleaned explanation ends a sentence: a full stop, question or exclamation mark or an
+    /// ellipsis, optionally followed by closing quotes or brackets. A text that stops elsewhere was most
+    /// likely cut off by the token limit and may say the opposite of what its full form would.
+    /// </summary>
+    public static bool EndsSentence(string text)
+    {
+        var end = text.Length;
+        while (end > 0 && ClosingMarks.Contains(text[end - 1]))
+        {
+            end--;
+        }
+
+        return end > 0 && SentenceEnds.Contains(text[end - 1]);
+    }
+
+    private const string SentenceEnds = ".!?\u2026";
+    private const string ClosingMarks = "\"')]\u201d\u2019";
 
     /// <summary>
     /// Removes leaves that failed the integrity test, repeatedly, since removing one can expose its
@@ -76,11 +107,12 @@ internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, Negatio
         return text.Length == 0 ? text : char.ToUpperInvariant(text[0]) + text[1..];
     }
 
-    private async Task<List<Draft>> AbduceAsync(
+    private async Task<(List<Draft> Drafts, int CutOff)> AbduceAsync(
         IReadOnlyList<Statement> parents,
         int depth,
         int nextId,
         Dictionary<StatementKey, int> keys,
+        int sampleIndex,
         CallMeter meter,
         CancellationToken cancellationToken)
     {
@@ -93,27 +125,37 @@ internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, Negatio
                 ask.Answer,
                 PromptBook.Abduction(ask.Parent.Text, ask.Answer),
                 level.Decoding,
-                level.Width),
+                level.Width,
+                level.Decoding.IsGreedy ? 0 : sampleIndex),
             meter,
             cancellationToken)));
 
         var drafts = new List<Draft>();
+        var cutOff = 0;
         for (var i = 0; i < asks.Count; i++)
         {
             foreach (var generated in results[i].Texts.Take(level.Width))
             {
                 var text = Clean(generated);
                 // One statement, one variable: an explanation already in the tree (the claim included) is not added again.
-                if (text.Length == 0 || !keys.TryAdd(StatementKey.Of(text), nextId + drafts.Count))
+                if (text.Length == 0 || keys.ContainsKey(StatementKey.Of(text)))
                 {
                     continue;
                 }
+
+                if (rules.DiscardCutOff && !EndsSentence(text))
+                {
+                    cutOff++;
+                    continue;
+                }
+
+                keys.Add(StatementKey.Of(text), nextId + drafts.Count);
 
                 drafts.Add(new Draft(nextId + drafts.Count, text, depth, asks[i].Parent.Id, asks[i].Answer));
             }
         }
 
-        return drafts;
+        return (drafts, cutOff);
     }
 
     private async Task<(List<Statement> Statements, AnswerProbabilities[] StatementAnswers)> EvaluateAsync(
@@ -142,7 +184,7 @@ internal sealed class TreeBuilder(ILanguageModel model, TreeShape shape, Negatio
                 draft.GeneratedFor,
                 forStatement.True,
                 forNegation.True,
-                Statement.IntegrityOf(forStatement.Answer, forNegation.Answer),
+                Statement.IntegrityOf(forStatement.Answer, forNegation.Answer, forStatement.True, forNegation.True, rules.IntegrityGap),
                 Statement.BeliefOf(forStatement.True, forNegation.True),
                 Kept: true));
         }

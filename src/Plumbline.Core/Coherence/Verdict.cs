@@ -8,13 +8,13 @@ namespace Plumbline.Core.Coherence;
 
 /// <summary>Everything the engine found out about one claim.</summary>
 /// <param name="Claim">The claim judged.</param>
-/// <param name="Answer">The coherent answer (the claim's value in the MAX-SAT optimum); null when failed.</param>
-/// <param name="DirectAnswer">What the model answers when simply asked; null when that failed.</param>
+/// <param name="Answer">The coherent answer (the claim's value in the MAX-SAT optimum, or the majority over sampled trees); null when failed.</param>
+/// <param name="DirectAnswer">What the model answers when simply asked (p(True | claim) above 0.5); null when that failed.</param>
 /// <param name="Status">Settled, overturned, contested or failed.</param>
 /// <param name="Margin">Extra clause weight lost if the claim took the other value (scaled cost difference / scale).</param>
 /// <param name="TwoSided">The kept explanations of the claim include integral ones written for True and for False.</param>
 /// <param name="Tree">All statements, pruned ones included; null when the tree could not be built.</param>
-/// <param name="Links">Entailments and contradictions among kept statements.</param>
+/// <param name="Links">Entailments and contradictions among kept statements that became clauses.</param>
 /// <param name="Falsified">Soft clauses the optimum breaks.</param>
 /// <param name="SolveStatus">Optimal when both solves (claim true, claim false) proved optimality, else the weaker status; null when no solve happened.</param>
 /// <param name="ObjectiveCost">Scaled cost of the optimum, as an exported WCNF's optimum; null when no solve happened.</param>
@@ -47,6 +47,39 @@ public sealed record Verdict(
     string? Error = null,
     [property: JsonIgnore] CoherenceProblem? Problem = null)
 {
+    /// <summary>
+    /// The direct answer that compares p(True | claim) with p(True | negated claim) instead of with 0.5
+    /// (a tie gives <see cref="DirectAnswer"/>); null when the claim's answers are unknown.
+    /// </summary>
+    public bool? PairedDirectAnswer { get; init; }
+
+    /// <summary>
+    /// <see cref="Margin"/> divided by the total weight of the claim's soft clauses, in [0, 1], so that
+    /// margins of trees of different sizes can be compared and averaged; 0 when there are no clauses.
+    /// </summary>
+    public double NormalisedMargin { get; init; }
+
+    /// <summary>Every ordered pair of kept statements with its NLI scores; empty when scoring did not happen.</summary>
+    public IReadOnlyList<PairScore> Pairs { get; init; } = [];
+
+    /// <summary>The truth value of every kept statement in the chosen optimum, by statement id; empty when no solve happened.</summary>
+    public IReadOnlyDictionary<int, bool> Values { get; init; } = new Dictionary<int, bool>();
+
+    /// <summary>Statement pairs read as entailment one way and contradiction the other.</summary>
+    public IReadOnlyList<LinkConflict> Conflicts { get; init; } = [];
+
+    /// <summary>Explanations dropped because they did not end a sentence (over all sampled trees).</summary>
+    public int CutOffDiscarded { get; init; }
+
+    /// <summary>Agreement of independently sampled trees; null when one tree was judged.</summary>
+    public SampleAgreement? Stability { get; init; }
+
+    /// <summary>
+    /// Soft clauses broken by the best assignment that gives the claim the other answer. Those it breaks and the
+    /// optimum keeps are what decided the answer; empty when no solve happened.
+    /// </summary>
+    public IReadOnlyList<FalsifiedClause> FalsifiedWithOtherAnswer { get; init; } = [];
+
     [JsonIgnore]
     public bool Overturned => Status == ClaimStatus.Overturned;
 

@@ -39,7 +39,7 @@ public sealed record RequestFingerprint
     public static RequestFingerprint Of(GenerationRequest request, string promptVersion)
     {
         ArgumentNullException.ThrowIfNull(request);
-        return ForGeneration(request.Purpose, request.Subject, request.Answer, request.Count, request.Decoding, promptVersion);
+        return ForGeneration(request.Purpose, request.Subject, request.Answer, request.Count, request.Decoding, promptVersion, request.SampleIndex);
     }
 
     public static RequestFingerprint Of(AnswerRequest request, string promptVersion)
@@ -49,11 +49,13 @@ public sealed record RequestFingerprint
     }
 
     /// <summary>The fingerprint of a generation request described without its rendered prompt
-    /// (what a recording file holds).</summary>
+    /// (what a recording file holds). The sample index is written only when it is above 0, so the
+    /// first sample of a request keeps the key it had before sample indices existed.</summary>
     public static RequestFingerprint ForGeneration(
-        GenerationPurpose purpose, string subject, bool? answer, int count, Decoding decoding, string promptVersion)
+        GenerationPurpose purpose, string subject, bool? answer, int count, Decoding decoding, string promptVersion, int sampleIndex = 0)
     {
         ArgumentNullException.ThrowIfNull(subject);
+        ArgumentOutOfRangeException.ThrowIfNegative(sampleIndex);
         ArgumentNullException.ThrowIfNull(decoding);
         ArgumentNullException.ThrowIfNull(decoding.Stop);
         RequireVersion(promptVersion);
@@ -81,6 +83,11 @@ public sealed record RequestFingerprint
         }
 
         json.Append(']');
+        if (sampleIndex > 0)
+        {
+            Field(json, "sample"); json.Append(sampleIndex.ToString(CultureInfo.InvariantCulture));
+        }
+
         Field(json, "prompt_version"); Text(json, promptVersion);
         json.Append('}');
         return new RequestFingerprint(GenerateKind, promptVersion, json.ToString());
@@ -160,16 +167,7 @@ public sealed record RequestFingerprint
         }
     }
 
-    private static void Field(StringBuilder json, string name, bool first = false)
-    {
-        if (!first)
-        {
-            json.Append(',');
-        }
-
-        Text(json, name);
-        json.Append(':');
-    }
+    private static void Field(StringBuilder json, string name, bool first = false) => CanonicalJsonWriter.Field(json, name, first);
 
     private static void Real(StringBuilder json, double value, string name)
     {
@@ -181,36 +179,5 @@ public sealed record RequestFingerprint
         json.Append(FormatReal(value));
     }
 
-    // Escapes only the quote, the backslash and control characters, as JSON requires; everything
-    // else stays as it is, so the hashed bytes do not depend on an encoder's notion of "safe" text.
-    private static void Text(StringBuilder json, string value)
-    {
-        json.Append('"');
-        foreach (var c in value)
-        {
-            switch (c)
-            {
-                case '"': json.Append("\\\""); break;
-                case '\\': json.Append("\\\\"); break;
-                case '\b': json.Append("\\b"); break;
-                case '\f': json.Append("\\f"); break;
-                case '\n': json.Append("\\n"); break;
-                case '\r': json.Append("\\r"); break;
-                case '\t': json.Append("\\t"); break;
-                default:
-                    if (c < 0x20)
-                    {
-                        json.Append("\\u").Append(((int)c).ToString("x4", CultureInfo.InvariantCulture));
-                    }
-                    else
-                    {
-                        json.Append(c);
-                    }
-
-                    break;
-            }
-        }
-
-        json.Append('"');
-    }
+    private static void Text(StringBuilder json, string value) => CanonicalJsonWriter.Text(json, value);
 }

@@ -1,5 +1,4 @@
 using Plumbline.Core.Coherence;
-using Plumbline.Core.Entailment;
 using Plumbline.Core.Language;
 
 namespace Plumbline.Core.Runs;
@@ -43,37 +42,37 @@ public sealed record RunFigures(
     TokenUsage Tokens,
     TimeSpan WallTime)
 {
-    public static RunFigures From(IReadOnlyList<Verdict> verdicts, TimeSpan wallTime)
-    {
-        var judged = verdicts.Where(v => v.Status != ClaimStatus.Failed).ToList();
-        var labelled = judged.Where(v => v.Claim.Gold is not null).ToList();
-        int Count(ClaimStatus status) => verdicts.Count(v => v.Status == status);
-        double RateOf(int count) => judged.Count == 0 ? 0.0 : (double)count / judged.Count;
+    /// <summary>Paired direct answer (p(claim) against p(negated claim)) equals gold; null without labelled claims.</summary>
+    public Proportion? PairedDirectAccuracy { get; init; }
 
-        var tokens = TokenUsage.None;
+    /// <summary>Mean normalised margin of judged claims.</summary>
+    public double MeanNormalisedMargin { get; init; }
+
+    /// <summary>Mean share of sampled trees giving the majority answer, over judged claims; null when one tree per claim was judged.</summary>
+    public double? MeanStability { get; init; }
+
+    /// <summary>Judged claims whose sampled trees tied (no majority).</summary>
+    public int StabilityTies { get; init; }
+
+    /// <summary>Statement pairs read as entailment one way and contradiction the other, over all claims.</summary>
+    public int ConflictingPairs { get; init; }
+
+    /// <summary>Explanations dropped because they did not end a sentence, over all claims.</summary>
+    public int CutOffDiscarded { get; init; }
+
+    /// <summary>Claims whose answer probabilities were estimated by sampling rather than read from token probabilities.</summary>
+    public int EstimatedClaims { get; init; }
+
+    /// <summary>The figures of a list of verdicts (a <see cref="RunTally"/> over them).</summary>
+    public static RunFigures From(IEnumerable<Verdict> verdicts, TimeSpan wallTime)
+    {
+        ArgumentNullException.ThrowIfNull(verdicts);
+        var tally = new RunTally();
         foreach (var verdict in verdicts)
         {
-            tokens += verdict.Tokens;
+            tally.Add(verdict);
         }
 
-        return new RunFigures(
-            Claims: verdicts.Count,
-            Judged: judged.Count,
-            Settled: Count(ClaimStatus.Settled),
-            Overturned: Count(ClaimStatus.Overturned),
-            Contested: Count(ClaimStatus.Contested),
-            Failed: Count(ClaimStatus.Failed),
-            Labelled: labelled.Count,
-            DirectAccuracy: labelled.Count == 0 ? null : Proportion.Wilson(labelled.Count(v => v.DirectAnswer == v.Claim.Gold), labelled.Count),
-            CoherentAccuracy: labelled.Count == 0 ? null : Proportion.Wilson(labelled.Count(v => v.Answer == v.Claim.Gold), labelled.Count),
-            OverturnRate: RateOf(Count(ClaimStatus.Overturned)),
-            ContestedRate: RateOf(Count(ClaimStatus.Contested)),
-            TwoSidedRate: RateOf(judged.Count(v => v.TwoSided)),
-            MeanMargin: judged.Count == 0 ? 0.0 : judged.Average(v => v.Margin),
-            EntailmentLinks: verdicts.Sum(v => v.Links.Count(l => l.Kind == EntailmentKind.Entailment)),
-            ContradictionLinks: verdicts.Sum(v => v.Links.Count(l => l.Kind == EntailmentKind.Contradiction)),
-            ModelCalls: verdicts.Sum(v => v.ModelCalls),
-            Tokens: tokens,
-            WallTime: wallTime);
+        return tally.ToFigures(wallTime);
     }
 }

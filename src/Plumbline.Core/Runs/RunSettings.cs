@@ -26,8 +26,46 @@ public sealed record RunSettings(
     string PromptVersion,
     string Solver)
 {
+    /// <summary>Least |p(True | E) - p(True | ~E)| for integrity.</summary>
+    public double IntegrityGap { get; init; }
+
+    public BeliefForm BeliefForm { get; init; }
+
+    /// <summary>Least NLI probability of a link.</summary>
+    public double LinkFloor { get; init; }
+
+    public ConflictRule Conflicts { get; init; }
+
+    public ContradictionCount Contradictions { get; init; }
+
+    public NliText NliText { get; init; }
+
+    public bool DiscardCutOff { get; init; }
+
+    public bool ExpandIntegralClaim { get; init; } = true;
+
+    public bool ClaimBelief { get; init; }
+
+    public DirectAnswerRule DirectAnswer { get; init; }
+
+    /// <summary>Sampled trees per claim.</summary>
+    public int Samples { get; init; } = 1;
+
     /// <summary>Settings from the engine's options and the descriptions of the parts in use.</summary>
     public static RunSettings From(CoherenceOptions options, string modelSource, string nliModel, string solver, int? seed) =>
         new(modelSource, nliModel, options.Shape, options.Negation, options.ContestedThreshold,
-            options.Weighting, options.WeightScale, seed, options.PromptVersion, solver);
+            options.Weighting, options.WeightScale, seed, options.PromptVersion, solver)
+        {
+            IntegrityGap = options.IntegrityGap,
+            BeliefForm = options.BeliefForm,
+            LinkFloor = options.LinkFloor,
+            Conflicts = options.Conflicts,
+            Contradictions = options.Contradictions,
+            NliText = options.NliText,
+            DiscardCutOff = options.DiscardCutOff,
+            ExpandIntegralClaim = options.ExpandIntegralClaim,
+            ClaimBelief = options.ClaimBelief,
+            DirectAnswer = options.DirectAnswer,
+            Samples = options.Samples,
+        };
 }

@@ -42,6 +42,30 @@ public sealed record Statement(
         return sum <= 0 ? 0.5 : pTrue / sum;
     }
 
+    /// <summary>
+    /// The integrity test with a minimum gap: the argmax answer flips under negation and p(True | E) and
+    /// p(True | ~E) differ by more than <paramref name="minimumGap"/>. With a gap of 0 this is the plain
+    /// flip test, since a flip already puts the two on opposite sides of 0.5.
+    /// </summary>
+    public static Integrity IntegrityOf(bool answerForStatement, bool answerForNegation, double pTrue, double pTrueOfNegation, double minimumGap)
+    {
+        var flip = IntegrityOf(answerForStatement, answerForNegation);
+        return flip != Integrity.NotIntegral && Math.Abs(pTrue - pTrueOfNegation) > minimumGap ? flip : Integrity.NotIntegral;
+    }
+
+    /// <summary>
+    /// The weight of a unit clause for the side the model believes (<paramref name="believedTrue"/>), from
+    /// belief b = p(True | E) / (p(True | E) + p(True | ~E)): that side's share, b or 1 - b
+    /// (<see cref="BeliefForm.Ratio"/>), or the normalised difference |2b - 1|, which equals
+    /// |p(True | E) - p(True | ~E)| / (p(True | E) + p(True | ~E)).
+    /// </summary>
+    public static double BeliefWeight(double belief, bool believedTrue, BeliefForm form) =>
+        form == BeliefForm.NormalisedDifference ? Math.Abs(2 * belief - 1)
+        : believedTrue ? belief : 1 - belief;
+
+    /// <summary>The weight of this integral statement's belief clause.</summary>
+    public double BeliefWeight(BeliefForm form) => BeliefWeight(Belief, Integrity == Integrity.IntegralTrue, form);
+
     /// <summary>The integrity test: integral when the argmax answer flips under negation.</summary>
     public static Integrity IntegrityOf(bool answerForStatement, bool answerForNegation) =>
         (answerForStatement, answerForNegation) switch

@@ -57,6 +57,11 @@ public sealed class RecordingLanguageModel : ILanguageModel
 
         var purpose = RequestFingerprint.NameOf(request.Purpose);
         var settings = request.Answer is { } answer ? $"answer {answer}, n={request.Count}" : $"n={request.Count}";
+        if (request.SampleIndex > 0)
+        {
+            settings += $", sample {request.SampleIndex}";
+        }
+
         var topic = RecordingReader.TopicOf(RequestFingerprint.GenerateKind, purpose, request.Subject, request.Answer);
         return Task.FromException<GenerationResult>(new ModelRequestException(
             $"no recorded response for {purpose} ({settings}) of \"{request.Subject}\" in {fileName}{Hint(topic)}"));
@@ -75,6 +80,6 @@ public sealed class RecordingLanguageModel : ILanguageModel
 
     private string Hint(string topic) =>
         linesByTopic.TryGetValue(topic, out var line)
-            ? $" (line {line} has it with other decoding settings or n)"
+            ? $" (line {line} has it with other decoding settings, n or sample)"
             : "";
 }

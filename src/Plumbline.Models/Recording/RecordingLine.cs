@@ -13,7 +13,11 @@ internal static class RecordingLine
     private static readonly JsonWriterOptions Options = new() { Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping };
 
     public static string Format(RequestFingerprint fingerprint, string responseJson) =>
-        $"{{\"key\":\"{fingerprint.Key}\",\"request\":{fingerprint.CanonicalJson},\"response\":{responseJson}}}";
+        Format(fingerprint.Key, fingerprint.CanonicalJson, responseJson);
+
+    /// <summary>A line from a stored key, canonical request and response, as the response cache keeps them.</summary>
+    public static string Format(string key, string canonicalRequest, string responseJson) =>
+        $"{{\"key\":\"{key}\",\"request\":{canonicalRequest},\"response\":{responseJson}}}";
 
     public static string Response(GenerationResult result) => Write(json =>
     {

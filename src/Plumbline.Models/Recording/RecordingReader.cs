@@ -1,5 +1,6 @@
 using System.Text;
 using System.Text.Json;
+using Plumbline.Core.Coherence;
 using Plumbline.Core.Language;
 
 namespace Plumbline.Models.Recording;
@@ -13,7 +14,7 @@ internal static class RecordingReader
 {
     private static readonly string[] LineFields = ["key", "request", "response"];
     private static readonly string[] GenerateFields =
-        ["kind", "purpose", "subject", "answer", "n", "temperature", "top_p", "max_tokens", "stop", "prompt_version"];
+        ["kind", "purpose", "subject", "answer", "n", "temperature", "top_p", "max_tokens", "stop", "sample", "prompt_version"];
     private static readonly string[] AnswerFields = ["kind", "statement", "prompt_version"];
     private static readonly string[] GenerationResponseFields = ["texts", "prompt_tokens", "completion_tokens"];
     private static readonly string[] AnswerResponseFields = ["p_true", "p_false", "estimated", "prompt_tokens", "completion_tokens"];
@@ -50,6 +51,11 @@ internal static class RecordingReader
 
         return entries;
     }
+
+    /// <summary>Parses and validates one line, as <see cref="ReadAsync"/> does for each line of a file.</summary>
+    /// <exception cref="RecordingFormatException">The line is malformed.</exception>
+    public static RecordedEntry ParseLine(string file, int line, string promptVersion, string text) =>
+        new LineParser(file, line, promptVersion).Parse(text);
 
     /// <summary>What a request is about, without its settings: lets a failed lookup point at a
     /// line that holds the same question asked with other settings.</summary>
@@ -110,13 +116,14 @@ internal static class RecordingReader
                 }
                 : null;
             var count = RequireInteger(request, "request", "n", minimum: 1);
+            var sample = request.TryGetProperty("sample", out _) ? RequireInteger(request, "request", "sample", minimum: 0) : 0;
             var temperature = RequireNumber(request, "request", "temperature", 0, double.MaxValue, "a number of at least 0");
             var topP = RequireNumber(request, "request", "top_p", double.Epsilon, 1, "a number above 0 and at most 1");
             var maxTokens = RequireInteger(request, "request", "max_tokens", minimum: 1);
             var stop = RequireStrings(request, "request", "stop");
             var decoding = new Decoding(temperature, topP, maxTokens, stop);
             var fingerprint = RequestFingerprint.ForGeneration(
-                purpose, subject, answer, count, decoding, RequirePromptVersion(request));
+                purpose, subject, answer, count, decoding, RequirePromptVersion(request), sample);
             CheckKey(root, fingerprint);
 
             var response = RequireObject(root, null, "response");
@@ -128,9 +135,10 @@ internal static class RecordingReader
             }
 
             var result = new GenerationResult(texts, ReadUsage(response));
+            var asked = new GenerationRequest(purpose, subject, answer, PromptBook.Render(purpose, subject, answer), decoding, count, sample);
             return new RecordedEntry(fingerprint, line,
                 TopicOf(RequestFingerprint.GenerateKind, purposeName, subject, answer),
-                result, null, RecordingLine.Response(result));
+                result, null, RecordingLine.Response(result), asked, null);
         }
 
         private RecordedEntry ParseAnswer(JsonElement root, JsonElement request)
@@ -169,7 +177,7 @@ internal static class RecordingReader
                 : AnswerProbabilities.FromRaw(pTrue, pFalse, estimated, usage);
             return new RecordedEntry(fingerprint, line,
                 TopicOf(RequestFingerprint.AnswerKind, "", statement, null),
-                null, probabilities, RecordingLine.Response(probabilities));
+                null, probabilities, RecordingLine.Response(probabilities), null, new AnswerRequest(statement, PromptBook.Answer(statement)));
         }
 
         private string RequirePromptVersion(JsonElement request)

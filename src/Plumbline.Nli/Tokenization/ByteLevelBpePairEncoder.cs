@@ -25,6 +25,10 @@ internal sealed partial class ByteLevelBpePairEncoder : IPairEncoder
 
     public long PaddingId { get; }
 
+    public int VocabularySize => tokenizer.Vocabulary.Values.Max() + 1;
+
+    public int SegmentCount => layout.SecondSegmentHasOwnType ? 2 : 1;
+
     public static ByteLevelBpePairEncoder Create(string vocabularyFile, string mergesFile, bool lowerCase, int maxLength)
     {
         var tokenizer = Open(vocabularyFile, mergesFile);

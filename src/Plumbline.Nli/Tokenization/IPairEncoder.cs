@@ -9,6 +9,12 @@ internal interface IPairEncoder
     /// <summary>Token id that fills the tail of shorter pairs in a padded batch.</summary>
     long PaddingId { get; }
 
+    /// <summary>One more than the highest token id the encoder can write: the rows the model's embedding table needs.</summary>
+    int VocabularySize { get; }
+
+    /// <summary>Distinct segment (token type) ids the encoder writes: 2 for the [CLS] a [SEP] b [SEP] frame, else 1.</summary>
+    int SegmentCount { get; }
+
     /// <summary>The token ids of one side, without special tokens or truncation.</summary>
     IReadOnlyList<int> Tokenize(string text);
 

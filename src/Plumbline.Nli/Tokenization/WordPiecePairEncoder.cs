@@ -18,6 +18,10 @@ internal sealed class WordPiecePairEncoder : IPairEncoder
 
     public long PaddingId { get; }
 
+    public int VocabularySize => tokenizer.Vocabulary.Size;
+
+    public int SegmentCount => 2;
+
     public static WordPiecePairEncoder Create(string vocabularyFile, bool lowerCase, int maxLength) =>
         new(new WordPieceTokenizer(WordPieceVocabulary.Load(vocabularyFile), lowerCase), maxLength);
 

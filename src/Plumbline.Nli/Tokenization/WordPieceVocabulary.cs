@@ -11,8 +11,9 @@ internal sealed class WordPieceVocabulary
     private readonly Dictionary<string, int>.AlternateLookup<ReadOnlySpan<char>> initial;
     private readonly Dictionary<string, int>.AlternateLookup<ReadOnlySpan<char>> continuation;
 
-    private WordPieceVocabulary(Dictionary<string, int> initial, Dictionary<string, int> continuation, int unknown, int classification, int separator, int padding)
+    private WordPieceVocabulary(Dictionary<string, int> initial, Dictionary<string, int> continuation, int size, int unknown, int classification, int separator, int padding)
     {
+        Size = size;
         this.initial = initial.GetAlternateLookup<ReadOnlySpan<char>>();
         this.continuation = continuation.GetAlternateLookup<ReadOnlySpan<char>>();
         Unknown = unknown;
@@ -20,6 +21,9 @@ internal sealed class WordPieceVocabulary
         Separator = separator;
         Padding = padding;
     }
+
+    /// <summary>Number of ids, one per line of the file.</summary>
+    public int Size { get; }
 
     public int Unknown { get; }
 
@@ -58,7 +62,7 @@ internal sealed class WordPieceVocabulary
             ? id
             : throw new NliModelException(file, $"vocabulary has no {token} token");
 
-        return new WordPieceVocabulary(initial, continuation, Special("[UNK]"), Special("[CLS]"), Special("[SEP]"), Special("[PAD]"));
+        return new WordPieceVocabulary(initial, continuation, lines.Length, Special("[UNK]"), Special("[CLS]"), Special("[SEP]"), Special("[PAD]"));
     }
 
     public bool TryGetInitial(ReadOnlySpan<char> piece, out int id) => initial.TryGetValue(piece, out id);

@@ -138,7 +138,7 @@ internal static class ReportJson
         {
             json.WriteStartObject();
             json.WriteNumber("index", clause.Index);
-            json.WriteString("origin", clause.Origin);
+            json.WriteString("origin", clause.Origin.ToString());
             json.WriteStartArray("literals");
             foreach (var literal in clause.Literals)
             {

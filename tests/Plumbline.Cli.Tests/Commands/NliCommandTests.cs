@@ -1,4 +1,5 @@
 using System.Text.Json;
+using Plumbline.Cli.Tests.EndToEnd;
 
 namespace Plumbline.Cli.Tests.Commands;
 
@@ -55,6 +56,39 @@ public sealed class NliCommandTests
 
         Assert.Equal(2, result.ExitCode);
         Assert.StartsWith("plumb: " + folder.Path, Assert.Single(result.ErrorLines));
+    }
+
+    [Fact]
+    public async Task Nli_SentencePieceModelFolder_ScoresThePairWithThatModel()
+    {
+        // A tiny random-weight XLM-R shaped export (models/tiny-nli/xlm-roberta, made by models/tiny-nli/build.py).
+        var folder = Path.Combine(SampleSweep.RepositoryRoot, "models", "tiny-nli", "xlm-roberta");
+
+        var result = await Plumb.RunAsync("nli", "The ferry leaves at 07:45.", "The ferry leaves in the morning.", "--nli-model", folder, "--format", "json");
+
+        Assert.True(result.ExitCode == 0, result.ToString());
+        using var json = JsonDocument.Parse(result.Output);
+        var root = json.RootElement;
+        var total = root.GetProperty("entailment").GetDouble() + root.GetProperty("neutral").GetDouble() + root.GetProperty("contradiction").GetDouble();
+        Assert.Equal(1.0, total, 1e-5);
+    }
+
+    [Fact]
+    public async Task Nli_SentencePieceFolderWithABrokenModelFile_ExitsTwoNamingTheFile()
+    {
+        using var folder = new TempDirectory();
+        var source = Path.Combine(SampleSweep.RepositoryRoot, "models", "tiny-nli", "deberta-v3");
+        foreach (var file in Directory.GetFiles(source))
+        {
+            File.Copy(file, folder.File(Path.GetFileName(file)));
+        }
+
+        var broken = folder.Write("spm.model", "not a SentencePiece model");
+
+        var result = await Plumb.RunAsync("nli", "a", "b", "--nli-model", folder.Path);
+
+        Assert.Equal(2, result.ExitCode);
+        Assert.StartsWith("plumb: " + broken + ": ", Assert.Single(result.ErrorLines));
     }
 
     private static string EvalFile(TempDirectory folder)

@@ -46,6 +46,21 @@ public sealed class TreeBuilderTests
     }
 
     [Fact]
+    public async Task BuildAsync_SampleIndex_OnlySampledAbductionsCarryIt()
+    {
+        var model = ScriptedModel.Growing(s => s.StartsWith("Not: ", StringComparison.Ordinal)
+            ? (s.Count(c => c == '/') == 2 ? 0.1 : 0.9)
+            : 0.9);
+
+        await new TreeBuilder(model, TreeShape.Default, NegationMode.Model).BuildAsync("Claim", new CallMeter(), CancellationToken.None, sampleIndex: 2);
+
+        // Depth 1 samples (temperature 1.0): index 2. Depth 2 and negations are greedy: index 0.
+        Assert.Equal(2, model.Generations.Count(g => g.SampleIndex == 2));
+        Assert.All(model.Generations.Where(g => g.SampleIndex == 2), g => Assert.Equal("Claim", g.Subject));
+        Assert.Equal(12 + 19, model.Generations.Count(g => g.SampleIndex == 0));
+    }
+
+    [Fact]
     public async Task BuildAsync_IntegralExplanation_IsNotExpanded()
     {
         var model = new ScriptedModel();
@@ -68,6 +83,112 @@ public sealed class TreeBuilderTests
         Assert.DoesNotContain(model.Generations, g => g.Subject == "Integral." && g.Purpose == GenerationPurpose.Abduction);
         Assert.Equal(2, built.Tree[3].ParentId);
         Assert.Equal(Integrity.IntegralFalse, built.Tree[3].Integrity);
+    }
+
+    [Theory]
+    // |0.6 - 0.4| = 0.2: integral with no gap, so it is a leaf; not with a gap of 0.45, so it is explained further.
+    [InlineData(0.0, Integrity.IntegralTrue, false)]
+    [InlineData(0.45, Integrity.NotIntegral, true)]
+    [InlineData(0.19, Integrity.IntegralTrue, false)]
+    public async Task BuildAsync_IntegrityGap_SmallGapStatementIsExpanded(double gap, Integrity expected, bool expanded)
+    {
+        var model = new ScriptedModel();
+        model.Explanations[("Claim", true)] = ["Weak."];
+        model.Explanations[("Weak.", true)] = ["Deeper."];
+        model.PTrue["Claim"] = 0.9;
+        model.PTrue["Not: Claim"] = 0.05;
+        model.PTrue["Weak."] = 0.6;
+        model.PTrue["Not: Weak."] = 0.4;
+        model.PTrue["Deeper."] = 0.95;
+        model.PTrue["Not: Deeper."] = 0.05;
+        var shape = new TreeShape([new LevelShape(1, Decoding.Greedy()), new LevelShape(1, Decoding.Greedy())]);
+
+        var built = await new TreeBuilder(model, shape, NegationMode.Model, TreeRules.Plain with { IntegrityGap = gap })
+            .BuildAsync("Claim", new CallMeter(), CancellationToken.None);
+
+        Assert.Equal(expected, built.Tree[1].Integrity);
+        Assert.Equal(expanded, model.Generations.Any(g => g.Subject == "Weak." && g.Purpose == GenerationPurpose.Abduction));
+        Assert.Equal(expanded ? 3 : 2, built.Tree.Statements.Count);
+        // The claim (0.9 against 0.05) clears every gap here.
+        Assert.Equal(Integrity.IntegralTrue, built.Tree.Root.Integrity);
+    }
+
+    [Fact]
+    public async Task BuildAsync_DiscardCutOff_UnfinishedExplanationDroppedAndCountedWithoutRequests()
+    {
+        var model = new ScriptedModel { PTrueWith = s => s.StartsWith("Not: ", StringComparison.Ordinal) ? 0.2 : 0.7 };
+        model.Explanations[("Claim", true)] = ["Kettles boil water.", "Kettles are made of", "The claim."];
+        model.Explanations[("Claim", false)] = ["No (see above)."];
+        var shape = new TreeShape([new LevelShape(3, Decoding.Sampling())]);
+
+        var built = await new TreeBuilder(model, shape, NegationMode.Model, TreeRules.Plain with { DiscardCutOff = true })
+            .BuildAsync("Claim", new CallMeter(), CancellationToken.None);
+        var kept = await new TreeBuilder(ScriptedCopy(model), shape, NegationMode.Model)
+            .BuildAsync("Claim", new CallMeter(), CancellationToken.None);
+
+        Assert.Equal(["Claim", "Kettles boil water.", "The claim.", "No (see above)."], built.Tree.Statements.Select(s => s.Text));
+        Assert.Equal(1, built.CutOffDiscarded);
+        Assert.DoesNotContain(model.Answers, a => a.Statement.Contains("made of", StringComparison.Ordinal));
+        Assert.Equal(5, kept.Tree.Statements.Count);
+        Assert.Equal(0, kept.CutOffDiscarded);
+    }
+
+    [Theory]
+    [InlineData("The kettle boils.", true)]
+    [InlineData("Does it boil?", true)]
+    [InlineData("It boils!", true)]
+    [InlineData("He said \"it boils.\"", true)]
+    [InlineData("It boils (mostly.)", true)]
+    [InlineData("It boils\u2026", true)]
+    [InlineData("The kettle boils because the", false)]
+    [InlineData("The kettle boils,", false)]
+    [InlineData("", false)]
+    public void EndsSentence_Text_TrueOnlyForAFinishedSentence(string text, bool expected) =>
+        Assert.Equal(expected, TreeBuilder.EndsSentence(text));
+
+    [Theory]
+    [InlineData(true, 3)]
+    [InlineData(false, 1)]
+    public async Task BuildAsync_IntegralClaimNotExpanded_TreeIsTheClaimAlone(bool expand, int statements)
+    {
+        var model = new ScriptedModel { PTrueWith = s => s.StartsWith("Not: ", StringComparison.Ordinal) ? 0.2 : 0.7 };
+        model.Explanations[("Claim", true)] = ["For."];
+        model.Explanations[("Claim", false)] = ["Against."];
+
+        var built = await new TreeBuilder(model, OneLevel, NegationMode.Model, TreeRules.Plain with { ExpandIntegralClaim = expand })
+            .BuildAsync("Claim", new CallMeter(), CancellationToken.None);
+
+        Assert.Equal(statements, built.Tree.Statements.Count);
+        Assert.Equal(expand, model.Generations.Any(g => g.Purpose == GenerationPurpose.Abduction));
+    }
+
+    [Fact]
+    public async Task BuildAsync_NonIntegralClaimWithExpansionOff_StillExpanded()
+    {
+        var model = new ScriptedModel { PTrueWith = _ => 0.7 };
+        model.Explanations[("Claim", true)] = ["For."];
+
+        var built = await new TreeBuilder(model, OneLevel, NegationMode.Model, TreeRules.Plain with { ExpandIntegralClaim = false })
+            .BuildAsync("Claim", new CallMeter(), CancellationToken.None);
+
+        Assert.Equal(["Claim", "For."], built.Tree.Statements.Select(s => s.Text));
+    }
+
+    [Theory]
+    // plain: p(claim) > 0.5; paired: p(claim) against p(negated claim), a tie falling back to plain.
+    [InlineData(0.45, 0.3, false, true)]
+    [InlineData(0.6, 0.7, true, false)]
+    [InlineData(0.6, 0.6, true, true)]
+    [InlineData(0.4, 0.4, false, false)]
+    public async Task BuildAsync_ClaimProbabilities_PlainAndPairedDirectAnswers(double pClaim, double pNegated, bool plain, bool paired)
+    {
+        var model = new ScriptedModel();
+        model.PTrue["Claim"] = pClaim;
+        model.PTrue["Not: Claim"] = pNegated;
+
+        var built = await new TreeBuilder(model, OneLevel, NegationMode.Model).BuildAsync("Claim", new CallMeter(), CancellationToken.None);
+
+        Assert.Equal((plain, paired), (built.DirectAnswer, built.PairedDirectAnswer));
     }
 
     [Theory]
@@ -210,6 +331,17 @@ public sealed class TreeBuilderTests
     [InlineData("   ", "")]
     public void Clean_GeneratedText_FirstLineCapitalised(string generated, string expected) =>
         Assert.Equal(expected, TreeBuilder.Clean(generated));
+
+    private static ScriptedModel ScriptedCopy(ScriptedModel model)
+    {
+        var copy = new ScriptedModel { PTrueWith = model.PTrueWith };
+        foreach (var (key, texts) in model.Explanations)
+        {
+            copy.Explanations[key] = texts;
+        }
+
+        return copy;
+    }
 
     internal static Statement Node(int id, int? parent, Integrity integrity, double belief = 0.5, bool? generatedFor = null, int depth = -1) =>
         new(id, $"S{id}", $"not S{id}", true, depth >= 0 ? depth : parent is null ? 0 : 1, parent,

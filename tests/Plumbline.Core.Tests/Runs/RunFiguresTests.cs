@@ -46,6 +46,32 @@ public sealed class RunFiguresTests
     }
 
     [Fact]
+    public void From_NewPerClaimFields_FoldedByHand()
+    {
+        var conflict = new LinkConflict(new Link(1, 2, EntailmentKind.Entailment, 0.6), new Link(2, 1, EntailmentKind.Contradiction, 0.7), Dropped: true);
+        Verdict[] verdicts =
+        [
+            Verdicts[0] with { PairedDirectAnswer = false, NormalisedMargin = 0.5, Stability = new SampleAgreement(3, 3, false), CutOffDiscarded = 2, Conflicts = [conflict] },
+            Verdicts[1] with { PairedDirectAnswer = false, NormalisedMargin = 0.1, Stability = new SampleAgreement(3, 2, false), ProbabilitiesEstimated = true },
+            Verdicts[2] with { PairedDirectAnswer = true, NormalisedMargin = 0.0, Stability = new SampleAgreement(2, 1, true), CutOffDiscarded = 1 },
+            Verdicts[4],
+        ];
+
+        var figures = RunFigures.From(verdicts, TimeSpan.Zero);
+
+        // Paired direct answers against gold (a true, b false, c true): false wrong, false right, true right.
+        Assert.Equal((2, 3), (figures.PairedDirectAccuracy!.Successes, figures.PairedDirectAccuracy.Total));
+        Assert.Equal(0.2, figures.MeanNormalisedMargin, 12);
+        Assert.Equal((1.0 + 2.0 / 3 + 0.5) / 3, figures.MeanStability!.Value, 12);
+        Assert.Equal(1, figures.StabilityTies);
+        Assert.Equal((1, 3, 1), (figures.ConflictingPairs, figures.CutOffDiscarded, figures.EstimatedClaims));
+    }
+
+    [Fact]
+    public void From_OneTreePerClaim_NoMeanStability() =>
+        Assert.Null(RunFigures.From(Verdicts, TimeSpan.Zero).MeanStability);
+
+    [Fact]
     public void From_NoLabels_NoAccuracy()
     {
         var figures = RunFigures.From([Verdicts[3]], TimeSpan.Zero);
@@ -81,7 +107,7 @@ public sealed class RunFiguresTests
         var started = new DateTimeOffset(2025, 1, 2, 3, 4, 5, TimeSpan.Zero);
         var settings = RunSettings.From(CoherenceOptions.Default, "scripted", "nli", "exhaustive", seed: null);
         var tree = new ExplanationTree([new Statement(0, "C", "Not C", true, 0, null, null, 0.6, 0.3, Integrity.IntegralTrue, 2.0 / 3, true)]);
-        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), ["belief: #0"], [0], 1000);
+        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), [ClauseOrigin.Belief(0)], [0], 1000);
         var report = RunReport.Create("0.1.0", settings, started, started.AddSeconds(3), [Verdicts[0] with { Tree = tree, Problem = problem }, Verdicts[4]]);
 
         var back = JsonSerializer.Deserialize<RunReport>(JsonSerializer.Serialize(report))!;
@@ -98,7 +124,7 @@ public sealed class RunFiguresTests
     public void Serialize_Verdict_LeavesOutProblemAndDerivedViews()
     {
         var tree = new ExplanationTree([new Statement(0, "C", "Not C", true, 0, null, null, 0.6, 0.3, Integrity.IntegralTrue, 2.0 / 3, true)]);
-        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), ["belief: #0"], [0], 1000);
+        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), [ClauseOrigin.Belief(0)], [0], 1000);
         var verdict = Verdicts[0] with { Tree = tree, Problem = problem };
 
         var json = JsonSerializer.Serialize(verdict);

@@ -47,6 +47,7 @@ public sealed class RecordingFormatTests : IDisposable
         { """{"request":""" + Gen.Replace("\"n\":2", "\"n\":2,\"prompt\":\"x\"", StringComparison.Ordinal) + ""","response":{"texts":["a","b"]}}""", "request.prompt", "unknown field" },
         { """{"request":""" + Gen.Replace("\"n\":2", "\"n\":2,\"n\":2", StringComparison.Ordinal) + ""","response":{"texts":["a","b"]}}""", "request.n", "appears twice" },
         { """{"request":""" + Gen + ""","response":{"texts":["a"]}}""", "response.texts", "expected at least 2 texts (n), found 1" },
+        { """{"request":""" + Gen.Replace("\"n\":2", "\"n\":2,\"sample\":-1", StringComparison.Ordinal) + ""","response":{"texts":["a","b"]}}""", "request.sample", "expected a whole number of at least 0" },
         { """{"request":""" + Gen + ""","response":{"texts":["a",null]}}""", "response.texts[1]", "expected a string" },
         { """{"request":""" + Gen + ""","response":{"texts":"a"}}""", "response.texts", "expected an array of strings" },
         { """{"request":""" + Gen + ""","response":{"p_true":0.9,"p_false":0.1}}""", "response.p_true", "unknown field" },

@@ -110,7 +110,24 @@ public sealed class RecordingLanguageModelTests : IDisposable
         var error = await Assert.ThrowsAsync<ModelRequestException>(() =>
             model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 3), CancellationToken.None));
 
-        Assert.EndsWith("(line 3 has it with other decoding settings or n)", error.Message, StringComparison.Ordinal);
+        Assert.EndsWith("(line 3 has it with other decoding settings, n or sample)", error.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task GenerateAsync_SecondSample_ReplaysItsOwnLineNotTheFirstSample()
+    {
+        var second = Requests.AbductionLine("Bats are mammals.", true, 1, "they have fur.")
+            .Replace("\"n\":1", "\"n\":1,\"sample\":1", StringComparison.Ordinal);
+        var model = await Load(temp.Write("rec.jsonl", Requests.AbductionLine("Bats are mammals.", true, 1, "they nurse their young."), second));
+
+        var first = await model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 1), CancellationToken.None);
+        var other = await model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 1) with { SampleIndex = 1 }, CancellationToken.None);
+        var missing = await Assert.ThrowsAsync<ModelRequestException>(() =>
+            model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 1) with { SampleIndex = 2 }, CancellationToken.None));
+
+        Assert.Equal(["they nurse their young."], first.Texts);
+        Assert.Equal(["they have fur."], other.Texts);
+        Assert.StartsWith("no recorded response for abduction (answer True, n=1, sample 2) of \"Bats are mammals.\"", missing.Message, StringComparison.Ordinal);
     }
 
     [Fact]

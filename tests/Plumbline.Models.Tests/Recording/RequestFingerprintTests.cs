@@ -16,8 +16,9 @@ public sealed class RequestFingerprintTests
         bool? answer = true,
         int n = 3,
         Decoding? decoding = null,
-        string prompt = "prompt A") =>
-        new(purpose, subject, answer, prompt, decoding ?? Base, n);
+        string prompt = "prompt A",
+        int sample = 0) =>
+        new(purpose, subject, answer, prompt, decoding ?? Base, n, sample);
 
     [Fact]
     public void Of_SameRequestWithOtherPromptText_SameKey()
@@ -45,6 +46,8 @@ public sealed class RequestFingerprintTests
         { "stop extra", Generation(decoding: Base with { Stop = ["\n", "."] }), "v1" },
         { "stop empty", Generation(decoding: Base with { Stop = [] }), "v1" },
         { "prompt version", Generation(), "v2" },
+        { "sample 1", Generation(sample: 1), "v1" },
+        { "sample 2", Generation(sample: 2), "v1" },
     };
 
     [Theory]
@@ -95,6 +98,26 @@ public sealed class RequestFingerprintTests
         Assert.Equal(canonical, fingerprint.CanonicalJson);
         Assert.Equal(Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(canonical))), fingerprint.Key);
         Assert.Equal("d3f40fa4e042146f610b20cb113643d6ed6adfb9a6ffa445b1b3fbdd7aebe564", fingerprint.Key);
+    }
+
+    // The first sample leaves the field out (the golden key above is the one every recording made
+    // before sample indices existed uses); a later sample adds "sample" just before "prompt_version".
+    [Fact]
+    public void Of_LaterSample_MatchesHandWrittenCanonicalJsonAndGoldenKey()
+    {
+        const string canonical =
+            """{"kind":"generate","purpose":"abduction","subject":"Bats are mammals.","answer":true,"n":3,"temperature":1.0,"top_p":1.0,"max_tokens":64,"stop":["\n"],"sample":2,"prompt_version":"test-1"}""";
+
+        var fingerprint = RequestFingerprint.Of(Generation(sample: 2), "test-1");
+
+        Assert.Equal(canonical, fingerprint.CanonicalJson);
+        Assert.Equal("edd2de6c12db68c2e3bcd8fbcf17a072f859708d0b8218eda10e5e38fe7156e4", fingerprint.Key);
+    }
+
+    [Fact]
+    public void Of_NegativeSample_Throws()
+    {
+        Assert.Throws<ArgumentOutOfRangeException>(() => RequestFingerprint.Of(Generation(sample: -1), "v1"));
     }
 
     [Fact]

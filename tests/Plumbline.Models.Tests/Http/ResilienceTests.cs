@@ -1,0 +1,92 @@
+using System.Diagnostics;
+using Plumbline.Core.Coherence;
+using Plumbline.Core.Language;
+using Plumbline.LoopbackEndpoint;
+using Plumbline.Models.Http;
+using Xunit;
+
+namespace Plumbline.Models.Tests.Http;
+
+/// <summary>Each injected fault is survived by a retry; a call whose every attempt fails says why; waits follow Retry-After.</summary>
+public sealed class ResilienceTests
+{
+    private const string Statement = "Moss grows on stones.";
+
+    private static AnswerRequest Ask() => new(Statement, PromptBook.Answer(Statement));
+
+    [Theory]
+    [InlineData(Fault.ServerError)]
+    [InlineData(Fault.Unavailable)]
+    [InlineData(Fault.Reset)]
+    [InlineData(Fault.Slow)]
+    [InlineData(Fault.MalformedJson)]
+    [InlineData(Fault.MissingLogprobs)]
+    [InlineData(Fault.TooManyRequests)]
+    public async Task ScoreAnswers_OneFaultyResponse_IsRetried(Fault fault)
+    {
+        // The set-up check is request 1; the faults hit requests 2 and 3.
+        await using var server = await LoopbackModelServer.StartAsync(new LoopbackOptions(SlowBy: TimeSpan.FromSeconds(3))
+        {
+            Faults = (sequence, _) => sequence is 2 or 3 ? fault : Fault.None,
+        });
+        var opened = await Endpoint.OpenAsync(server, Endpoint.Options(calls: Endpoint.Quick(retries: 3, attemptSeconds: 0.5)));
+        await using var model = opened.Model;
+
+        var result = await model.ScoreAnswersAsync(Ask(), CancellationToken.None);
+
+        Assert.Equal(new ScriptedAnswers().BeliefOf("Moss grows on stones"), result.True, 9);
+        Assert.Equal(4, server.Requests);
+        Assert.Equal([fault, fault], server.InjectedFaults);
+    }
+
+    [Fact]
+    public async Task ScoreAnswers_EveryAttemptFails_GivesUpAfterTheBoundWithTheReason()
+    {
+        await using var server = await LoopbackModelServer.StartAsync(new LoopbackOptions
+        {
+            Faults = FaultPlans.Always("Moss grows", Fault.Unavailable, FaultPlans.None),
+        });
+        var opened = await Endpoint.OpenAsync(server, Endpoint.Options(calls: Endpoint.Quick(retries: 2)));
+        await using var model = opened.Model;
+
+        var error = await Assert.ThrowsAsync<ModelRequestException>(() => model.ScoreAnswersAsync(Ask(), CancellationToken.None));
+
+        Assert.Equal(3, server.CountOf("Moss grows"));
+        Assert.Contains("after 3 attempts", error.Message, StringComparison.Ordinal);
+        Assert.Contains("503", error.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task RetryAfter_IsHonoured_UpToTheMaximumWait()
+    {
+        await using var server = await LoopbackModelServer.StartAsync(new LoopbackOptions(RetryAfterSeconds: 1)
+        {
+            Faults = (sequence, _) => sequence == 2 ? Fault.TooManyRequests : Fault.None,
+        });
+        var patient = Endpoint.Options(calls: new CallResilienceOptions(3, TimeSpan.FromMilliseconds(1), TimeSpan.FromSeconds(10), TimeSpan.FromSeconds(5)));
+        var opened = await Endpoint.OpenAsync(server, patient);
+        await using var model = opened.Model;
+
+        var clock = Stopwatch.StartNew();
+        await model.ScoreAnswersAsync(Ask(), CancellationToken.None);
+
+        // Backoff alone would have waited about a millisecond.
+        Assert.True(clock.Elapsed >= TimeSpan.FromMilliseconds(950), $"waited only {clock.Elapsed}");
+    }
+
+    [Fact]
+    public async Task RequestsPerMinute_SpacesRequestsOut()
+    {
+        await using var server = await LoopbackModelServer.StartAsync();
+        // 60 a minute: one token a second after the first 60; spend them, then time the next two.
+        var limited = Endpoint.Options(calls: Endpoint.Quick() with { RequestsPerMinute = 60 });
+        var opened = await Endpoint.OpenAsync(server, limited);
+        await using var model = opened.Model;
+        await Task.WhenAll(Enumerable.Range(0, 59).Select(i => model.ScoreAnswersAsync(new AnswerRequest($"s{i}", PromptBook.Answer($"s{i}")), CancellationToken.None)));
+
+        var clock = Stopwatch.StartNew();
+        await Task.WhenAll(Enumerable.Range(0, 2).Select(i => model.ScoreAnswersAsync(new AnswerRequest($"t{i}", PromptBook.Answer($"t{i}")), CancellationToken.None)));
+
+        Assert.True(clock.Elapsed >= TimeSpan.FromMilliseconds(900), $"two requests over the limit took only {clock.Elapsed}");
+    }
+}
