@@ -47,10 +47,7 @@ internal sealed class JsonFields(string file, JsonElement root)
             ? value.ValueKind == JsonValueKind.Number && value.TryGetInt64(out var number) ? number : throw Wrong(name, "a whole number")
             : null;
 
-<<<<<<< HEAD
-=======
     /// <summary>Any number, however large (configs write 1e30-sized sentinels where a whole number would overflow).</summary>
->>>>>>> main
     public double? Number(string name) =>
         Field(name) is { } value
             ? value.ValueKind == JsonValueKind.Number ? value.GetDouble() : throw Wrong(name, "a number")

@@ -67,13 +67,10 @@ internal static partial class NliModelCardReader
             labels,
             card.String("output"),
             card.File,
-<<<<<<< HEAD
-            card.Number("temperature") ?? 1.0);
-=======
+            card.Number("temperature") ?? 1.0,
             config?.Integer("vocab_size"),
             config?.Integer("type_vocab_size"),
             config?.Integer("pad_token_id"));
->>>>>>> main
     }
 
     private static NliModelCard FromConfig(string directory, JsonFields config)
@@ -117,9 +114,9 @@ internal static partial class NliModelCardReader
             labels,
             null,
             config.File,
-            config.Integer("vocab_size"),
-            config.Integer("type_vocab_size"),
-            config.Integer("pad_token_id"));
+            VocabularySize: config.Integer("vocab_size"),
+            TypeVocabularySize: config.Integer("type_vocab_size"),
+            PaddingId: config.Integer("pad_token_id"));
     }
 
     /// <summary>
