@@ -2,6 +2,7 @@ using Plumbline.Core.Coherence;
 using Plumbline.Core.Entailment;
 using Plumbline.Core.MaxSat;
 using Plumbline.Core.Trees;
+using Plumbline.Reports.Model;
 
 namespace Plumbline.Reports;
 
@@ -35,6 +36,39 @@ internal static class ReportWords
         EntailmentKind.Entailment => "entailment",
         EntailmentKind.Contradiction => "contradiction",
         _ => throw new ArgumentOutOfRangeException(nameof(kind), kind, "a link must be an entailment or a contradiction"),
+    };
+
+    public static string Of(ClauseKind kind) => kind switch
+    {
+        ClauseKind.Belief => "belief",
+        ClauseKind.Entailment => "entailment",
+        ClauseKind.Contradiction => "contradiction",
+        ClauseKind.Pin => "pin",
+        _ => throw Unknown(kind),
+    };
+
+    /// <summary>The label of one direction's NLI scores, neutral included.</summary>
+    public static string Label(EntailmentKind kind) => kind switch
+    {
+        EntailmentKind.Entailment => "entailment",
+        EntailmentKind.Neutral => "neutral",
+        EntailmentKind.Contradiction => "contradiction",
+        _ => throw Unknown(kind),
+    };
+
+    public static string Of(PairListing listing) => listing switch
+    {
+        PairListing.Linked => "linked",
+        PairListing.All => "all",
+        _ => throw Unknown(listing),
+    };
+
+    /// <summary>"true", "false" or "none" for an answer that may be missing.</summary>
+    public static string Answer(bool? answer) => answer switch
+    {
+        true => "true",
+        false => "false",
+        null => "none",
     };
 
     public static string Of(NegationMode mode) => mode switch

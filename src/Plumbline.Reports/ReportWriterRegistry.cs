@@ -24,7 +24,8 @@ public sealed class ReportWriterRegistry
     /// <summary>Every format Plumbline ships.</summary>
     public static ReportWriterRegistry Default { get; } = Empty
         .With(TextReportWriter.FormatName, options => new TextReportWriter(options.Colour))
-        .With(JsonReportWriter.FormatName, _ => new JsonReportWriter());
+        .With(JsonReportWriter.FormatName, _ => new JsonReportWriter())
+        .With(JsonLinesReportWriter.FormatName, _ => new JsonLinesReportWriter());
 
     /// <summary>Known format names, sorted.</summary>
     public IReadOnlyList<string> Formats { get; }

@@ -1,15 +1,25 @@
+using System.Text;
+using Plumbline.Cli.Composition;
+
 namespace Plumbline.Cli.Tests;
 
 /// <summary>Runs the command line in-process with captured output and error.</summary>
 internal static class Plumb
 {
-    public static Task<PlumbResult> RunAsync(params string[] args) => RunAsync(args, CancellationToken.None);
+    public static Task<PlumbResult> RunAsync(params string[] args) => RunWithInputAsync(CompositionRoot.Default, null, args);
 
-    public static async Task<PlumbResult> RunAsync(string[] args, CancellationToken cancellationToken)
+    public static Task<PlumbResult> RunAsync(CompositionRoot root, params string[] args) => RunWithInputAsync(root, null, args);
+
+    /// <summary>Runs with <paramref name="standardInput"/> as the text on standard input.</summary>
+    public static async Task<PlumbResult> RunWithInputAsync(CompositionRoot root, string? standardInput, params string[] args)
     {
         using var output = new StringWriter();
         using var error = new StringWriter();
-        var code = await PlumbCli.RunAsync(args, new CliContext(output, error), cancellationToken);
+        var context = new CliContext(output, error)
+        {
+            StandardInput = () => new MemoryStream(Encoding.UTF8.GetBytes(standardInput ?? string.Empty)),
+        };
+        var code = await PlumbCli.RunAsync(args, context, root, CancellationToken.None);
         return new PlumbResult(code, output.ToString(), error.ToString());
     }
 }

@@ -1,4 +1,4 @@
-using Plumbline.Core.Runs;
+using Plumbline.Reports.Model;
 using Plumbline.Reports.Tests.Fixtures;
 
 namespace Plumbline.Reports.Tests;
@@ -16,8 +16,8 @@ public sealed class ReportWriterRegistryTests
     public static TheoryData<string> DefaultFormats => [.. ReportWriterRegistry.Default.Formats];
 
     [Fact]
-    public void Default_Formats_TextAndJson() =>
-        Assert.Equal(["json", "text"], ReportWriterRegistry.Default.Formats);
+    public void Default_Formats_EveryShippedFormat() =>
+        Assert.Equal(["json", "jsonl", "text"], ReportWriterRegistry.Default.Formats);
 
     [Theory]
     [MemberData(nameof(DefaultFormats))]
@@ -46,7 +46,7 @@ public sealed class ReportWriterRegistryTests
         var error = Assert.Throws<ArgumentException>(() => ReportWriterRegistry.Default.Create("yaml"));
 
         Assert.Contains("'yaml'", error.Message, StringComparison.Ordinal);
-        Assert.Contains("json, text", error.Message, StringComparison.Ordinal);
+        Assert.Contains("json, jsonl, text", error.Message, StringComparison.Ordinal);
     }
 
     [Fact]
@@ -69,9 +69,9 @@ public sealed class ReportWriterRegistryTests
     {
         var extended = ReportWriterRegistry.Default.With("Fixed", _ => new FixedWriter("fixed"));
 
-        Assert.Equal(["fixed", "json", "text"], extended.Formats);
+        Assert.Equal(["fixed", "json", "jsonl", "text"], extended.Formats);
         Assert.Equal("fixed", extended.Create("fixed").Format);
-        Assert.Equal(["json", "text"], ReportWriterRegistry.Default.Formats);
+        Assert.Equal(["json", "jsonl", "text"], ReportWriterRegistry.Default.Formats);
     }
 
     [Fact]
@@ -79,7 +79,7 @@ public sealed class ReportWriterRegistryTests
     {
         var replaced = ReportWriterRegistry.Default.With("json", _ => new FixedWriter("json-double"));
 
-        Assert.Equal(["json", "text"], replaced.Formats);
+        Assert.Equal(["json", "jsonl", "text"], replaced.Formats);
         Assert.Equal("json-double", replaced.Create("json").Format);
     }
 }

@@ -1,5 +1,6 @@
 using System.CommandLine;
 using System.Globalization;
+using Plumbline.Application.Input;
 using Plumbline.Cli.Composition;
 using Plumbline.Cli.Options;
 using Plumbline.Core.Claims;
@@ -9,7 +10,7 @@ namespace Plumbline.Cli.Commands;
 /// <summary><c>plumb check "claim" ...</c>: judges the claims given as arguments, with ids c1, c2, ...</summary>
 internal static class CheckCommand
 {
-    public static Command Create(CliContext context)
+    public static Command Create(CliContext context, CompositionRoot root)
     {
         var claims = new Argument<string[]>("claims")
         {
@@ -17,7 +18,7 @@ internal static class CheckCommand
             HelpName = "CLAIM",
             Arity = ArgumentArity.OneOrMore,
         };
-        var options = new JudgeOptions(Backends.Reports.Formats);
+        var options = new JudgeOptions(root.Reports.Formats);
         var command = new Command("check", "Judge claims given on the command line.");
         command.Arguments.Add(claims);
         options.AddTo(command);
@@ -25,7 +26,7 @@ internal static class CheckCommand
         {
             var given = ClaimsOf(parse.GetValue(claims) ?? []);
             var settings = options.Read(parse);
-            return JudgeComposition.RunAsync(settings, given.ToAsyncEnumerable(), context, cancellationToken);
+            return root.JudgeAsync(settings, () => Task.FromResult(ClaimInput.FromClaims("command line", given)), context, cancellationToken);
         }, cancellationToken));
         return command;
     }

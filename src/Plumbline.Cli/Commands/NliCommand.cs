@@ -18,7 +18,7 @@ internal static class NliCommand
 {
     private static readonly string[] Formats = ["text", "json"];
 
-    public static Command Create(CliContext context)
+    public static Command Create(CliContext context, CompositionRoot root)
     {
         var premise = new Argument<string?>("premise") { Description = "The premise sentence.", HelpName = "PREMISE", Arity = ArgumentArity.ZeroOrOne };
         var hypothesis = new Argument<string?>("hypothesis") { Description = "The hypothesis sentence.", HelpName = "HYPOTHESIS", Arity = ArgumentArity.ZeroOrOne };
@@ -48,8 +48,8 @@ internal static class NliCommand
                 }
 
                 var pairs = ReadPairs(evalFile);
-                using var scorer = Backends.OpenScorer(NliModelOption.Read(parse, nliModel));
-                var evaluation = await NliEvaluator.EvaluateAsync(scorer, pairs.Pairs, Backends.Time, cancellationToken);
+                using var scorer = root.OpenNliModel(NliModelOption.Read(parse, nliModel));
+                var evaluation = await NliEvaluator.EvaluateAsync(scorer, pairs.Pairs, root.Time, cancellationToken);
                 text = settings.Format == "json" ? NliEvaluationOutput.Json(pairs, evaluation) : NliEvaluationOutput.Text(pairs, evaluation);
             }
             else
@@ -59,7 +59,7 @@ internal static class NliCommand
                     throw new UsageException("nli: give a premise and a hypothesis, both non-empty (or --eval FILE)");
                 }
 
-                using var scorer = Backends.OpenScorer(NliModelOption.Read(parse, nliModel));
+                using var scorer = root.OpenNliModel(NliModelOption.Read(parse, nliModel));
                 var result = (await scorer.ScoreWithDetailsAsync([new SentencePair(p, h)], cancellationToken))[0];
                 text = settings.Format == "json" ? PairJson(p, h, result) : PairText(p, h, result);
             }

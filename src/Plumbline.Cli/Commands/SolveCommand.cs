@@ -18,7 +18,7 @@ internal static class SolveCommand
 {
     private static readonly string[] Formats = ["text", "json"];
 
-    public static Command Create(CliContext context)
+    public static Command Create(CliContext context, CompositionRoot root)
     {
         var file = new Argument<string>("file") { Description = "A WCNF file: 'p wcnf'/'p cnf' header, or the 2022 form with 'h' for hard clauses.", HelpName = "FILE" };
         var output = new OutputOptions(Formats);
@@ -37,7 +37,7 @@ internal static class SolveCommand
         {
             var settings = output.Read(parse);
             var limit = parse.GetValue(timeLimit) is { } seconds ? TimeSpan.FromSeconds(seconds) : (TimeSpan?)null;
-            var solver = Backends.CreateSolver(limit);
+            var solver = root.CreateSolver(limit);
             var summary = await WcnfSolving.SolveFileAsync(parse.GetValue(file)!, solver, cancellationToken);
             var text = settings.Format == "json" ? Json(summary) : Text(summary);
             await ResultDestination.WriteTextAsync(settings.Path, context.Output, text, cancellationToken);

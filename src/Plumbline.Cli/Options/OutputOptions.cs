@@ -1,4 +1,5 @@
 using System.CommandLine;
+using Plumbline.Application;
 
 namespace Plumbline.Cli.Options;
 
@@ -36,20 +37,24 @@ internal sealed class OutputOptions
     public OutputSettings Read(ParseResult parse)
     {
         var path = parse.GetValue(Output);
-        if (path is not null)
-        {
-            if (path.Length == 0 || Directory.Exists(path))
-            {
-                throw new UsageException($"--output: '{path}' is not a file name");
-            }
+        return new OutputSettings(parse.GetValue(Format)!, path is null ? null : CheckPath("--output", path));
+    }
 
-            var folder = Path.GetDirectoryName(Path.GetFullPath(path));
-            if (folder is not null && !Directory.Exists(folder))
-            {
-                throw new UsageException($"--output: folder '{folder}' does not exist");
-            }
+    /// <summary>A file path a result can be written to: not a folder, in a folder that exists.</summary>
+    /// <exception cref="UsageException">It cannot be.</exception>
+    public static string CheckPath(string option, string path)
+    {
+        if (path.Length == 0 || Directory.Exists(path))
+        {
+            throw new UsageException($"{option}: '{path}' is not a file name");
         }
 
-        return new OutputSettings(parse.GetValue(Format)!, path);
+        var folder = Path.GetDirectoryName(Path.GetFullPath(path));
+        if (folder is not null && !Directory.Exists(folder))
+        {
+            throw new UsageException($"{option}: folder '{folder}' does not exist");
+        }
+
+        return path;
     }
 }

@@ -112,16 +112,21 @@ internal sealed class EndpointClient : IDisposable
 
     private static string OneLine(string text) => string.Join(' ', text.Split(['\r', '\n'], StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries));
 
-    private static TokenBucketRateLimiter PerMinute(int perMinute) => new(new TokenBucketRateLimiterOptions
+    /// <summary>A bucket holding a minute's allowance, refilled evenly: whole tokens at a time, at the
+    /// allowance's own rate (one every 10 s for 6 a minute, 2 a second for 120 a minute).</summary>
+    private static TokenBucketRateLimiter PerMinute(int perMinute)
     {
-        // Refilled every second so a minute's allowance is not spent in one burst and then waited out.
-        TokenLimit = perMinute,
-        TokensPerPeriod = Math.Max(1, (int)Math.Ceiling(perMinute / 60.0)),
-        ReplenishmentPeriod = TimeSpan.FromSeconds(1),
-        QueueLimit = int.MaxValue,
-        QueueProcessingOrder = QueueProcessingOrder.OldestFirst,
-        AutoReplenishment = true,
-    });
+        var perPeriod = Math.Max(1, perMinute / 60);
+        return new TokenBucketRateLimiter(new TokenBucketRateLimiterOptions
+        {
+            TokenLimit = perMinute,
+            TokensPerPeriod = perPeriod,
+            ReplenishmentPeriod = TimeSpan.FromSeconds(60.0 * perPeriod / perMinute),
+            QueueLimit = int.MaxValue,
+            QueueProcessingOrder = QueueProcessingOrder.OldestFirst,
+            AutoReplenishment = true,
+        });
+    }
 
     private static bool IsWorthRetrying(Exception? e) => e switch
     {

@@ -1,10 +1,10 @@
 using System.Text.Encodings.Web;
 using System.Text.Json;
-using Plumbline.Core.Runs;
+using Plumbline.Reports.Model;
 
 namespace Plumbline.Reports.Json;
 
-/// <summary>The whole run as one JSON document, shaped as schemas/plumbline-report-1.schema.json describes.</summary>
+/// <summary>The whole run as one JSON document, shaped as schemas/plumbline-report-2.schema.json describes.</summary>
 internal sealed class JsonReportWriter : IReportWriter
 {
     public const string FormatName = "json";
@@ -29,12 +29,14 @@ internal sealed class JsonReportWriter : IReportWriter
         ArgumentNullException.ThrowIfNull(output);
         await using var json = new Utf8JsonWriter(output, Options);
         json.WriteStartObject();
-        ReportJson.WriteHead(json, report);
+        ReportJson.WriteHead(json, report.Header);
+        ReportJson.WriteSummary(json, report);
         json.WriteStartArray("claims");
-        foreach (var verdict in report.Verdicts)
+        await foreach (var claim in report.Claims.ReadAsync(cancellationToken))
         {
-            cancellationToken.ThrowIfCancellationRequested();
-            ReportJson.WriteClaim(json, verdict);
+            json.WriteStartObject();
+            ReportJson.WriteClaimBody(json, claim);
+            json.WriteEndObject();
             // A sweep's report can be large; hand each claim to the stream instead of buffering the run.
             await json.FlushAsync(cancellationToken);
         }

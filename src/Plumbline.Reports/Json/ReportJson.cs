@@ -1,16 +1,17 @@
 using System.Text.Json;
 using Plumbline.Core.Coherence;
+using Plumbline.Core.Entailment;
 using Plumbline.Core.Language;
 using Plumbline.Core.Runs;
-using Plumbline.Core.Trees;
+using Plumbline.Reports.Model;
 
 namespace Plumbline.Reports.Json;
 
 /// <summary>
-/// The report's JSON shape, piece by piece, so that a streaming format can write the same claim
-/// objects one per line. Properties are written in a fixed order and numbers through
-/// <see cref="ReportNumbers"/>, which keeps two writes of one report identical.
-/// The shape is pinned by schemas/plumbline-report-1.schema.json; change both together.
+/// The report's JSON shape, piece by piece, so that the JSON Lines format writes the same objects one per line.
+/// Properties are written in a fixed order and numbers through <see cref="ReportNumbers"/>, which keeps two writes
+/// of one report identical. The shape is pinned by schemas/plumbline-report-2.schema.json (and the lines by
+/// schemas/plumbline-lines-2.schema.json); change them together.
 /// </summary>
 internal static class ReportJson
 {
@@ -18,27 +19,68 @@ internal static class ReportJson
         "Margins, thresholds and clause weights are in clause-weight units; the solver receives each weight " +
         "multiplied by this factor and rounded to an integer, and objective_cost is in those integer units.";
 
-    /// <summary>Everything before the claims: version, notice, settings, times and figures.</summary>
-    public static void WriteHead(Utf8JsonWriter json, RunReport report)
+    /// <summary>Version, notice, settings and start: what is known when the run begins.</summary>
+    public static void WriteHead(Utf8JsonWriter json, RunHeader header)
     {
-        json.WriteNumber("schema_version", report.SchemaVersion);
-        json.WriteString("plumbline_version", report.ToolVersion);
+        json.WriteNumber("schema_version", header.SchemaVersion);
+        json.WriteString("plumbline_version", header.ToolVersion);
         json.WriteString("notice", ReportNotice.Text);
         json.WritePropertyName("settings");
-        WriteSettings(json, report.Settings);
-        json.WriteString("started", ReportNumbers.Instant(report.Started));
+        WriteSettings(json, header);
+        json.WriteString("started", ReportNumbers.Instant(header.Started));
+    }
+
+    /// <summary>End, figures, gates and completion: what is known when the run is over.</summary>
+    public static void WriteSummary(Utf8JsonWriter json, RunReport report)
+    {
         json.WriteString("finished", ReportNumbers.Instant(report.Finished));
         json.WritePropertyName("figures");
         WriteFigures(json, report.Figures);
+        json.WriteStartArray("gates");
+        foreach (var gate in report.Gates)
+        {
+            json.WriteStartObject();
+            json.WriteString("name", gate.Name);
+            WriteNullable(json, "value", gate.Value, $"gates.{gate.Name}.value");
+            json.WriteString("comparison", gate.Comparison);
+            json.WriteNumber("threshold", ReportNumbers.Round(gate.Threshold, $"gates.{gate.Name}.threshold"));
+            json.WriteBoolean("passed", gate.Passed);
+            json.WriteEndObject();
+        }
+
+        json.WriteEndArray();
+        var completion = report.Completion;
+        json.WriteStartObject("completion");
+        json.WriteBoolean("complete", completion.IsComplete);
+        WriteNullable(json, "stopped_because", completion.StoppedBecause);
+        json.WriteStartArray("not_judged");
+        foreach (var id in completion.NotJudged)
+        {
+            json.WriteStringValue(id);
+        }
+
+        json.WriteEndArray();
+        json.WriteStartArray("problems");
+        foreach (var problem in completion.Problems)
+        {
+            json.WriteStartObject();
+            json.WriteString("source", problem.Source);
+            json.WriteString("message", problem.Message);
+            json.WriteEndObject();
+        }
+
+        json.WriteEndArray();
+        json.WriteEndObject();
     }
 
-    public static void WriteSettings(Utf8JsonWriter json, RunSettings settings)
+    private static void WriteSettings(Utf8JsonWriter json, RunHeader header)
     {
+        var settings = header.Settings;
         json.WriteStartObject();
         json.WriteString("model_source", settings.ModelSource);
         json.WriteString("nli_model", settings.NliModel);
         json.WritePropertyName("tree_shape");
-        WriteShape(json, settings.Shape);
+        WriteShape(json, settings);
         json.WriteString("negation_mode", ReportWords.Of(settings.Negation));
         json.WriteStartObject("thresholds");
         json.WriteNumber("contested_margin", ReportNumbers.Round(settings.ContestedThreshold, "settings.contested_threshold"));
@@ -48,13 +90,22 @@ internal static class ReportJson
         json.WriteNumber("factor", settings.WeightScale);
         json.WriteString("meaning", WeightScaleMeaning);
         json.WriteEndObject();
-        WriteNullable(json, "seed", settings.Seed);
+        if (settings.Seed is { } seed)
+        {
+            json.WriteNumber("seed", seed);
+        }
+        else
+        {
+            json.WriteNull("seed");
+        }
+
         json.WriteString("prompt_version", settings.PromptVersion);
         json.WriteString("solver", settings.Solver);
+        json.WriteString("pairs_listed", ReportWords.Of(header.Listing));
         json.WriteEndObject();
     }
 
-    public static void WriteFigures(Utf8JsonWriter json, RunFigures figures)
+    private static void WriteFigures(Utf8JsonWriter json, RunFigures figures)
     {
         json.WriteStartObject();
         json.WriteNumber("claims", figures.Claims);
@@ -80,14 +131,10 @@ internal static class ReportJson
         json.WriteEndObject();
     }
 
-    /// <summary>One claim's entry, the same object in the report's "claims" array and in a streamed line.</summary>
-    public static void WriteClaim(Utf8JsonWriter json, Verdict verdict)
+    /// <summary>One claim's entry, the same object in the report's "claims" array and in a JSON Lines record.</summary>
+    public static void WriteClaimBody(Utf8JsonWriter json, ClaimReport claim)
     {
-        var claim = verdict.Claim;
         var where = $"claims[{claim.Id}]";
-        var statements = verdict.Tree?.Statements ?? [];
-
-        json.WriteStartObject();
         json.WriteString("id", claim.Id);
         json.WriteString("claim", claim.Text);
         WriteNullable(json, "gold", claim.Gold);
@@ -98,22 +145,22 @@ internal static class ReportJson
         }
 
         json.WriteEndArray();
-        WriteNullable(json, "answer", verdict.Answer);
-        WriteNullable(json, "direct_answer", verdict.DirectAnswer);
-        json.WriteString("status", ReportWords.Of(verdict.Status));
-        json.WriteNumber("margin", ReportNumbers.Round(verdict.Margin, $"{where}.margin"));
-        json.WriteBoolean("two_sided", verdict.TwoSided);
-        json.WriteBoolean("probabilities_estimated", verdict.ProbabilitiesEstimated);
+        WriteNullable(json, "answer", claim.Answer);
+        WriteNullable(json, "direct_answer", claim.DirectAnswer);
+        json.WriteString("status", ReportWords.Of(claim.Status));
+        json.WriteNumber("margin", ReportNumbers.Round(claim.Margin, $"{where}.margin"));
+        json.WriteBoolean("two_sided", claim.TwoSided);
+        json.WriteBoolean("probabilities_estimated", claim.ProbabilitiesEstimated);
 
         json.WriteStartObject("counts");
-        json.WriteNumber("statements", statements.Count);
-        json.WriteNumber("kept", statements.Count(s => s.Kept));
-        json.WriteNumber("pruned", verdict.PrunedCount);
-        json.WriteNumber("integral", verdict.IntegralCount);
+        json.WriteNumber("statements", claim.Statements.Count);
+        json.WriteNumber("kept", claim.Statements.Count(s => s.Kept));
+        json.WriteNumber("pruned", claim.PrunedCount);
+        json.WriteNumber("integral", claim.IntegralCount);
         json.WriteEndObject();
 
         json.WriteStartArray("statements");
-        foreach (var statement in statements)
+        foreach (var statement in claim.Statements)
         {
             WriteStatement(json, statement, $"{where}.statements[{statement.Id}]");
         }
@@ -121,23 +168,121 @@ internal static class ReportJson
         json.WriteEndArray();
 
         json.WriteStartArray("links");
-        foreach (var link in verdict.Links)
+        foreach (var link in claim.Links)
         {
-            json.WriteStartObject();
-            json.WriteNumber("from", link.From);
-            json.WriteNumber("to", link.To);
-            json.WriteString("kind", ReportWords.Of(link.Kind));
-            json.WriteNumber("probability", ReportNumbers.Round(link.Probability, $"{where}.links.probability"));
-            json.WriteEndObject();
+            WriteLink(json, link, where);
         }
 
         json.WriteEndArray();
 
-        json.WriteStartArray("falsified_clauses");
-        foreach (var clause in verdict.Falsified)
+        json.WriteStartArray("pairs");
+        foreach (var pair in claim.Pairs)
+        {
+            json.WriteStartObject();
+            json.WriteNumber("first", pair.First);
+            json.WriteNumber("second", pair.Second);
+            json.WriteBoolean("linked", pair.Linked);
+            json.WritePropertyName("forward");
+            WriteScores(json, pair.Forward, $"{where}.pairs.forward");
+            json.WritePropertyName("backward");
+            WriteScores(json, pair.Backward, $"{where}.pairs.backward");
+            json.WriteEndObject();
+        }
+
+        json.WriteEndArray();
+        WriteClauses(json, "falsified_clauses", claim.Falsified, where);
+        WriteClauses(json, "deciding_clauses", claim.Deciding, where);
+
+        WriteNullable(json, "solve_status", claim.SolveStatus is { } status ? ReportWords.Of(status) : null);
+        if (claim.ObjectiveCost is { } cost)
+        {
+            json.WriteNumber("objective_cost", cost);
+        }
+        else
+        {
+            json.WriteNull("objective_cost");
+        }
+
+        json.WriteNumber("model_calls", claim.ModelCalls);
+        WriteTokens(json, claim.Tokens);
+        json.WriteStartObject("timings_ms");
+        json.WriteNumber("tree", ReportNumbers.Milliseconds(claim.Timings.Tree));
+        json.WriteNumber("nli", ReportNumbers.Milliseconds(claim.Timings.Nli));
+        json.WriteNumber("solve", ReportNumbers.Milliseconds(claim.Timings.Solve));
+        json.WriteNumber("total", ReportNumbers.Milliseconds(claim.Timings.Total));
+        json.WriteEndObject();
+        WriteNullable(json, "error", claim.Error);
+    }
+
+    private static void WriteStatement(Utf8JsonWriter json, StatementReport statement, string where)
+    {
+        json.WriteStartObject();
+        json.WriteNumber("id", statement.Id);
+        json.WriteString("text", statement.Text);
+        json.WriteString("negation", statement.Negation);
+        json.WriteBoolean("negation_from_model", statement.NegationFromModel);
+        json.WriteNumber("depth", statement.Depth);
+        if (statement.Parent is { } parent)
+        {
+            json.WriteNumber("parent", parent);
+        }
+        else
+        {
+            json.WriteNull("parent");
+        }
+
+        WriteNullable(json, "generated_for", statement.GeneratedFor);
+        json.WriteString("integrity", ReportWords.Of(statement.Integrity));
+        json.WriteNumber("belief", ReportNumbers.Round(statement.Belief, $"{where}.belief"));
+        json.WriteNumber("p_true", ReportNumbers.Round(statement.PTrue, $"{where}.p_true"));
+        json.WriteNumber("p_true_of_negation", ReportNumbers.Round(statement.PTrueOfNegation, $"{where}.p_true_of_negation"));
+        json.WriteBoolean("kept", statement.Kept);
+        WriteNullable(json, "value", statement.Value);
+        json.WriteStartArray("links");
+        foreach (var link in statement.Links)
+        {
+            WriteLink(json, link, where);
+        }
+
+        json.WriteEndArray();
+        json.WriteEndObject();
+    }
+
+    private static void WriteLink(Utf8JsonWriter json, Link link, string where)
+    {
+        json.WriteStartObject();
+        json.WriteNumber("from", link.From);
+        json.WriteNumber("to", link.To);
+        json.WriteString("kind", ReportWords.Of(link.Kind));
+        json.WriteNumber("probability", ReportNumbers.Round(link.Probability, $"{where}.links.probability"));
+        json.WriteEndObject();
+    }
+
+    private static void WriteScores(Utf8JsonWriter json, EntailmentScores scores, string where)
+    {
+        json.WriteStartObject();
+        json.WriteString("label", ReportWords.Label(scores.Kind));
+        json.WriteNumber("entailment", ReportNumbers.Round(scores.Entailment, $"{where}.entailment"));
+        json.WriteNumber("neutral", ReportNumbers.Round(scores.Neutral, $"{where}.neutral"));
+        json.WriteNumber("contradiction", ReportNumbers.Round(scores.Contradiction, $"{where}.contradiction"));
+        json.WriteEndObject();
+    }
+
+    private static void WriteClauses(Utf8JsonWriter json, string name, IReadOnlyList<FalsifiedClause> clauses, string where)
+    {
+        json.WriteStartArray(name);
+        foreach (var clause in clauses)
         {
             json.WriteStartObject();
             json.WriteNumber("index", clause.Index);
+            json.WriteString("kind", ReportWords.Of(clause.Origin.Kind));
+            json.WriteStartArray("statements");
+            foreach (var statement in clause.Origin.Statements)
+            {
+                json.WriteNumberValue(statement);
+            }
+
+            json.WriteEndArray();
             json.WriteString("origin", clause.Origin.ToString());
             json.WriteStartArray("literals");
             foreach (var literal in clause.Literals)
@@ -146,46 +291,16 @@ internal static class ReportJson
             }
 
             json.WriteEndArray();
-            json.WriteNumber("weight", ReportNumbers.Round(clause.Weight, $"{where}.falsified_clauses.weight"));
+            json.WriteNumber("weight", ReportNumbers.Round(clause.Weight, $"{where}.{name}.weight"));
             json.WriteEndObject();
         }
 
         json.WriteEndArray();
-
-        WriteNullable(json, "solve_status", verdict.SolveStatus is { } status ? ReportWords.Of(status) : null);
-        WriteNullable(json, "objective_cost", verdict.ObjectiveCost);
-        json.WriteNumber("model_calls", verdict.ModelCalls);
-        WriteTokens(json, verdict.Tokens);
-        json.WriteStartObject("timings_ms");
-        json.WriteNumber("tree", ReportNumbers.Milliseconds(verdict.Timings.Tree));
-        json.WriteNumber("nli", ReportNumbers.Milliseconds(verdict.Timings.Nli));
-        json.WriteNumber("solve", ReportNumbers.Milliseconds(verdict.Timings.Solve));
-        json.WriteNumber("total", ReportNumbers.Milliseconds(verdict.Timings.Total));
-        json.WriteEndObject();
-        WriteNullable(json, "error", verdict.Error);
-        json.WriteEndObject();
     }
 
-    private static void WriteStatement(Utf8JsonWriter json, Statement statement, string where)
+    private static void WriteShape(Utf8JsonWriter json, RunSettings settings)
     {
-        json.WriteStartObject();
-        json.WriteNumber("id", statement.Id);
-        json.WriteString("text", statement.Text);
-        json.WriteString("negation", statement.Negation);
-        json.WriteBoolean("negation_from_model", statement.NegationFromModel);
-        json.WriteNumber("depth", statement.Depth);
-        WriteNullable(json, "parent", statement.ParentId);
-        WriteNullable(json, "generated_for", statement.GeneratedFor);
-        json.WriteString("integrity", ReportWords.Of(statement.Integrity));
-        json.WriteNumber("belief", ReportNumbers.Round(statement.Belief, $"{where}.belief"));
-        json.WriteNumber("p_true", ReportNumbers.Round(statement.PTrue, $"{where}.p_true"));
-        json.WriteNumber("p_true_of_negation", ReportNumbers.Round(statement.PTrueOfNegation, $"{where}.p_true_of_negation"));
-        json.WriteBoolean("kept", statement.Kept);
-        json.WriteEndObject();
-    }
-
-    private static void WriteShape(Utf8JsonWriter json, TreeShape shape)
-    {
+        var shape = settings.Shape;
         json.WriteStartObject();
         json.WriteNumber("max_depth", shape.MaxDepth);
         json.WriteStartArray("levels");
@@ -261,11 +376,11 @@ internal static class ReportJson
         }
     }
 
-    private static void WriteNullable(Utf8JsonWriter json, string name, long? value)
+    private static void WriteNullable(Utf8JsonWriter json, string name, double? value, string field)
     {
         if (value is { } v)
         {
-            json.WriteNumber(name, v);
+            json.WriteNumber(name, ReportNumbers.Round(v, field));
         }
         else
         {

@@ -9,6 +9,8 @@ internal sealed class TerminalStyle(bool colour)
 
     public string Strong(string text) => Paint("\u001b[1m", text);
 
+    public string Faint(string text) => Paint("\u001b[2m", text);
+
     public string Alarm(string text) => Paint("\u001b[31m", text);
 
     public string Status(ClaimStatus status) => Paint(
@@ -20,6 +22,14 @@ internal sealed class TerminalStyle(bool colour)
             _ => "\u001b[31m",
         },
         ReportWords.Of(status));
+
+    /// <summary>T in cyan, F in yellow (not red and green: those already mean status), - faint.</summary>
+    public string Value(bool? value, bool kept) => value switch
+    {
+        true => Paint("\u001b[36m", "T"),
+        false => Paint("\u001b[33m", "F"),
+        null => Faint(kept ? "?" : "-"),
+    };
 
     private string Paint(string code, string text) => colour ? code + text + Reset : text;
 }

@@ -1,21 +1,27 @@
 using System.Globalization;
 using System.Text;
 using Plumbline.Core.Coherence;
-using Plumbline.Core.Entailment;
 using Plumbline.Core.Runs;
+using Plumbline.Reports.Model;
 
 namespace Plumbline.Reports.Text;
 
 /// <summary>
-/// A compact terminal summary: one block per claim, then the run figures and the notice. Lines end in
-/// "\n" and numbers use the invariant culture, so the same report always prints the same bytes.
+/// The terminal report. Per claim: its id and text, the answer and status on one line, then the tree as an indented
+/// outline where each statement shows its value in the optimum (T, F, or - when pruned) and its belief, then the few
+/// clauses that decided the answer and the contradictions (each pair once, both directions). The full pair list is
+/// shown only when the run listed every pair. Then gates, the run figures, how the run ended and the notice.
+/// Lines end in "\n" and numbers use the invariant culture, so the same report always prints the same bytes.
 /// </summary>
 internal sealed class TextReportWriter(bool colour) : IReportWriter
 {
     public const string FormatName = "text";
 
-    /// <summary>Statement texts quoted inside a line are cut to this many characters.</summary>
-    internal const int QuoteLength = 60;
+    /// <summary>Statement texts in the outline are cut to this many characters.</summary>
+    internal const int StatementLength = 100;
+
+    /// <summary>At most this many deciding clauses per claim: the heaviest ones say why.</summary>
+    internal const int DecidingShown = 4;
 
     private static readonly CultureInfo Invariant = CultureInfo.InvariantCulture;
 
@@ -30,64 +36,117 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         await using var writer = new StreamWriter(output, new UTF8Encoding(encoderShouldEmitUTF8Identifier: false), leaveOpen: true);
         writer.NewLine = "\n";
 
-        var head = new StringBuilder();
-        head.Append(Invariant, $"Plumbline {report.ToolVersion} - {Count(report.Verdicts.Count, "claim")}, ")
-            .Append(Invariant, $"{ReportNumbers.Instant(report.Started)} to {ReportNumbers.Instant(report.Finished)}\n");
-        await writer.WriteAsync(head, cancellationToken);
+        var header = report.Header;
+        await writer.WriteAsync(string.Create(Invariant,
+            $"plumb {header.ToolVersion} | {ReportText.Count(report.Claims.Count, "claim")} | {ReportNumbers.Instant(header.Started)} to {ReportNumbers.Instant(report.Finished)}\n")
+            .AsMemory(), cancellationToken);
+        await writer.WriteAsync(string.Create(Invariant, $"model {header.Settings.ModelSource} | nli {header.Settings.NliModel}\n").AsMemory(), cancellationToken);
 
-        foreach (var verdict in report.Verdicts)
+        await foreach (var claim in report.Claims.ReadAsync(cancellationToken))
         {
-            cancellationToken.ThrowIfCancellationRequested();
-            await writer.WriteAsync(ClaimBlock(verdict), cancellationToken);
+            await writer.WriteAsync(ClaimBlock(claim, header.Listing), cancellationToken);
         }
 
+        await writer.WriteAsync(GatesBlock(report.Gates), cancellationToken);
         await writer.WriteAsync(FiguresBlock(report.Figures), cancellationToken);
-        await writer.WriteAsync($"\nNotice: {ReportNotice.Text}\n".AsMemory(), cancellationToken);
+        await writer.WriteAsync(CompletionBlock(report.Completion), cancellationToken);
+        await writer.WriteAsync($"\nNote: {ReportNotice.Text}\n".AsMemory(), cancellationToken);
         await writer.FlushAsync(cancellationToken);
     }
 
-    internal StringBuilder ClaimBlock(Verdict verdict)
+    internal StringBuilder ClaimBlock(ClaimReport claim, PairListing listing)
     {
         var block = new StringBuilder("\n");
-        block.Append(style.Strong(verdict.Claim.Id)).Append("  ").Append(OneLine(verdict.Claim.Text)).Append('\n');
-
-        block.Append("    answer ").Append(Answer(verdict.Answer))
-            .Append(" | direct answer ").Append(Answer(verdict.DirectAnswer));
-        if (verdict.Claim.Gold is { } gold)
+        block.Append(style.Strong(claim.Id)).Append("  ").Append(ReportText.OneLine(claim.Text)).Append('\n');
+        block.Append("  answer ").Append(style.Strong(ReportWords.Answer(claim.Answer)))
+            .Append(" | direct answer ").Append(ReportWords.Answer(claim.DirectAnswer));
+        if (claim.Gold is { } gold)
         {
-            block.Append(" | gold ").Append(Answer(gold));
+            block.Append(" | gold ").Append(ReportWords.Answer(gold));
         }
 
-        block.Append('\n');
-        block.Append("    status ").Append(style.Status(verdict.Status));
-        if (verdict.Status != ClaimStatus.Failed)
+        block.Append(" | ").Append(style.Status(claim.Status));
+        if (claim.Status != ClaimStatus.Failed)
         {
-            block.Append(" | margin ").Append(Weight(verdict.Margin));
-            if (verdict.TwoSided)
+            block.Append(" | margin ").Append(ReportText.Weight(claim.Margin));
+            if (claim.TwoSided)
             {
                 block.Append(" | two-sided");
             }
         }
 
         block.Append('\n');
-
-        if (verdict.Tree is { } tree)
+        if (claim.Error is { } error)
         {
-            var kept = tree.Statements.Count(s => s.Kept);
-            block.Append(Invariant, $"    statements {kept} kept, {verdict.PrunedCount} pruned, {verdict.IntegralCount} integral");
-            block.Append(Invariant, $" | falsified clauses {verdict.Falsified.Count}\n");
+            block.Append("  reason: ").Append(style.Alarm(ReportText.OneLine(error))).Append('\n');
         }
 
-        var contradictions = verdict.Links.Where(l => l.Kind == EntailmentKind.Contradiction).ToList();
-        foreach (var link in contradictions)
+        if (claim.Statements.Count > 0)
         {
-            block.Append(Invariant, $"    contradiction (p {Probability(link.Probability)}): ")
-                .Append(Quote(verdict, link.From)).Append(" vs ").Append(Quote(verdict, link.To)).Append('\n');
+            block.Append(Invariant, $"  tree: {claim.Statements.Count(s => s.Kept)} kept, {claim.PrunedCount} pruned, {claim.IntegralCount} integral")
+                .Append(" (value in the optimum T/F, - pruned; b = belief)\n");
+            Outline(block, claim, claim.Statements[0], "    ", "    ");
         }
 
-        if (verdict.Error is { } error)
+        if (claim.Deciding.Count > 0)
         {
-            block.Append("    reason: ").Append(style.Alarm(OneLine(error))).Append('\n');
+            block.Append("  decided by\n");
+            foreach (var clause in claim.Deciding.Take(DecidingShown))
+            {
+                block.Append("    ").Append(ReportText.Clause(clause, claim)).Append('\n');
+            }
+
+            if (claim.Deciding.Count > DecidingShown)
+            {
+                block.Append(Invariant, $"    and {claim.Deciding.Count - DecidingShown} lighter clause(s)\n");
+            }
+        }
+
+        var shown = listing == PairListing.All ? claim.Pairs : [.. claim.Pairs.Where(p => p.IsContradiction && p.Linked)];
+        if (shown.Count > 0)
+        {
+            block.Append(listing == PairListing.All ? "  pairs\n" : "  contradictions\n");
+            foreach (var pair in shown)
+            {
+                block.Append("    ").Append(ReportText.Pair(pair)).Append('\n');
+            }
+        }
+
+        return block;
+    }
+
+    private void Outline(StringBuilder block, ClaimReport claim, StatementReport statement, string lead, string childLead)
+    {
+        block.Append(lead).Append(Invariant, $"#{statement.Id} ").Append(style.Value(statement.Value, statement.Kept))
+            .Append(Invariant, $" b{ReportText.Belief(statement.Belief)} ");
+        if (statement.GeneratedFor is { } forAnswer)
+        {
+            block.Append(forAnswer ? "[for true] " : "[for false] ");
+        }
+
+        var text = ReportText.Shorten(ReportText.OneLine(statement.Text), StatementLength);
+        block.Append(statement.Kept ? text : style.Faint(text)).Append('\n');
+        var children = claim.Statements.Where(s => s.Parent == statement.Id).ToList();
+        for (var i = 0; i < children.Count; i++)
+        {
+            var last = i == children.Count - 1;
+            Outline(block, claim, children[i], childLead + (last ? "\u2514\u2500 " : "\u251c\u2500 "), childLead + (last ? "   " : "\u2502  "));
+        }
+    }
+
+    internal static StringBuilder GatesBlock(IReadOnlyList<GateResult> gates)
+    {
+        var block = new StringBuilder();
+        if (gates.Count == 0)
+        {
+            return block;
+        }
+
+        block.Append("\nGates\n");
+        foreach (var gate in gates)
+        {
+            var value = gate.Value is { } v ? ReportText.Weight(v) : "n/a";
+            block.Append(Invariant, $"    {(gate.Passed ? "pass" : "FAIL")}  {gate.Name} = {value} (wanted {gate.Comparison} {ReportText.Weight(gate.Threshold)})\n");
         }
 
         return block;
@@ -96,64 +155,53 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
     internal static StringBuilder FiguresBlock(RunFigures figures)
     {
         var block = new StringBuilder("\nRun figures\n");
-        block.Append(Invariant, $"    {Count(figures.Claims, "claim")}: {figures.Judged} judged ")
+        block.Append(Invariant, $"    {ReportText.Count(figures.Claims, "claim")}: {figures.Judged} judged ")
             .Append(Invariant, $"({figures.Settled} settled, {figures.Overturned} overturned, {figures.Contested} contested), ")
             .Append(Invariant, $"{figures.Failed} failed\n");
         if (figures.DirectAccuracy is { } direct && figures.CoherentAccuracy is { } coherent)
         {
-            block.Append("    direct accuracy   ").Append(Accuracy(direct)).Append('\n');
-            block.Append("    coherent accuracy ").Append(Accuracy(coherent)).Append('\n');
+            block.Append("    direct accuracy   ").Append(ReportText.Accuracy(direct)).Append('\n');
+            block.Append("    coherent accuracy ").Append(ReportText.Accuracy(coherent)).Append('\n');
         }
         else
         {
             block.Append("    accuracy: no judged claim carries a gold label\n");
         }
 
-        block.Append(Invariant, $"    overturn rate {Percent(figures.OverturnRate)} | contested rate {Percent(figures.ContestedRate)}")
-            .Append(Invariant, $" | two-sided rate {Percent(figures.TwoSidedRate)} | mean margin {Weight(figures.MeanMargin)}\n");
+        block.Append(Invariant, $"    overturn rate {ReportText.Percent(figures.OverturnRate)} | contested rate {ReportText.Percent(figures.ContestedRate)}")
+            .Append(Invariant, $" | two-sided rate {ReportText.Percent(figures.TwoSidedRate)} | mean margin {ReportText.Weight(figures.MeanMargin)}\n");
         block.Append(Invariant, $"    links found {figures.EntailmentLinks + figures.ContradictionLinks} ")
             .Append(Invariant, $"({figures.EntailmentLinks} entailment, {figures.ContradictionLinks} contradiction)\n");
         block.Append(Invariant, $"    model calls {figures.ModelCalls} | tokens {figures.Tokens.Total} ")
             .Append(Invariant, $"({figures.Tokens.PromptTokens} prompt, {figures.Tokens.CompletionTokens} completion)")
-            .Append(Invariant, $" | wall time {Duration(figures.WallTime)}\n");
+            .Append(Invariant, $" | wall time {ReportText.Duration(figures.WallTime)}\n");
         return block;
     }
 
-    /// <summary>"#3 "text..."": the id ties the line to the JSON report, the quote makes it readable.</summary>
-    private static string Quote(Verdict verdict, int statementId)
+    internal static StringBuilder CompletionBlock(RunCompletion completion)
     {
-        var statements = verdict.Tree?.Statements;
-        return statements is not null && statementId >= 0 && statementId < statements.Count
-            ? $"#{statementId} \"{Shorten(OneLine(statements[statementId].Text), QuoteLength)}\""
-            : $"#{statementId}";
+        var block = new StringBuilder();
+        if (completion.StoppedBecause is { } reason)
+        {
+            block.Append("\nStopped: ").Append(reason).Append('\n');
+        }
+
+        if (completion.NotJudged.Count > 0)
+        {
+            block.Append(Invariant, $"    not judged ({completion.NotJudged.Count}): ")
+                .Append(string.Join(", ", completion.NotJudged.Take(20)))
+                .Append(completion.NotJudged.Count > 20 ? ", \u2026" : "").Append('\n');
+        }
+
+        if (completion.Problems.Count > 0)
+        {
+            block.Append("\nProblems\n");
+            foreach (var problem in completion.Problems)
+            {
+                block.Append("    ").Append(ReportText.OneLine(problem.Message)).Append('\n');
+            }
+        }
+
+        return block;
     }
-
-    internal static string Shorten(string text, int length) =>
-        text.Length <= length ? text : string.Concat(text.AsSpan(0, length - 1).TrimEnd(), "\u2026");
-
-    /// <summary>Model text can hold line breaks; a block keeps one line per fact.</summary>
-    private static string OneLine(string text) =>
-        string.Join(' ', text.Split((char[]?)null, StringSplitOptions.RemoveEmptyEntries));
-
-    private static string Answer(bool? answer) => answer switch
-    {
-        true => "true",
-        false => "false",
-        null => "none",
-    };
-
-    private static string Accuracy(Proportion p) =>
-        $"{Percent(p.Value)} ({p.Successes} of {p.Total}; Wilson 95% interval {Percent(p.Low)} to {Percent(p.High)})";
-
-    private static string Percent(double share) => (share * 100).ToString("0.0", Invariant) + "%";
-
-    private static string Probability(double p) => ReportNumbers.Round(p, "probability").ToString("0.00##", Invariant);
-
-    private static string Weight(double weight) => ReportNumbers.Round(weight, "weight").ToString("0.0###", Invariant);
-
-    private static string Duration(TimeSpan span) => span.TotalSeconds < 1
-        ? ReportNumbers.Milliseconds(span).ToString("0.#", Invariant) + " ms"
-        : span.TotalSeconds.ToString("0.0", Invariant) + " s";
-
-    private static string Count(int n, string noun) => n == 1 ? $"1 {noun}" : $"{n} {noun}s";
 }

@@ -4,6 +4,7 @@ using ArchUnitNET.Fluent.Syntax.Elements.Types;
 using ArchUnitNET.Loader;
 using ArchUnitNET.xUnit;
 using Plumbline.Core.Coherence;
+using Plumbline.LocalModel;
 using Plumbline.Models.Recording;
 using Plumbline.Nli;
 using Plumbline.Reports;
@@ -24,10 +25,12 @@ public sealed class DependencyRuleTests
     private static readonly System.Reflection.Assembly NliAssembly = typeof(OnnxEntailmentScorer).Assembly;
     private static readonly System.Reflection.Assembly ModelsAssembly = typeof(RecordingLanguageModel).Assembly;
     private static readonly System.Reflection.Assembly ReportsAssembly = typeof(IReportWriter).Assembly;
+    private static readonly System.Reflection.Assembly LocalModelAssembly = typeof(LocalLanguageModel).Assembly;
     private static readonly System.Reflection.Assembly CliAssembly = typeof(PlumbCli).Assembly;
+    private static readonly System.Reflection.Assembly ApplicationAssembly = typeof(Plumbline.Application.Running.ClaimRun).Assembly;
 
     private static readonly ArchUnitNET.Domain.Architecture Loaded = new ArchLoader()
-        .LoadAssemblies(CoreAssembly, SolverAssembly, NliAssembly, ModelsAssembly, ReportsAssembly, CliAssembly)
+        .LoadAssemblies(CoreAssembly, SolverAssembly, NliAssembly, ModelsAssembly, ReportsAssembly, LocalModelAssembly, ApplicationAssembly, CliAssembly)
         .Build();
 
     private static readonly (string Name, System.Reflection.Assembly Assembly)[] Adapters =
@@ -36,12 +39,14 @@ public sealed class DependencyRuleTests
         ("Nli", NliAssembly),
         ("Models", ModelsAssembly),
         ("Reports", ReportsAssembly),
+        ("LocalModel", LocalModelAssembly),
     ];
 
     public static TheoryData<string> ForbiddenInCore => new()
     {
         "System.Net.Http",
         "Microsoft.ML.OnnxRuntime",
+        "Microsoft.ML.OnnxRuntimeGenAI",
         "Google.OrTools",
         "Microsoft.Data.Sqlite",
         "Spectre.Console",
@@ -110,6 +115,31 @@ public sealed class DependencyRuleTests
         Assert.DoesNotContain(AdapterNamed(from).GetReferencedAssemblies(), r => r.Name == AdapterNamed(to).GetName().Name);
     }
 
+    /// <summary>The application layer runs the engine through Core's ports; which model or NLI model sits behind them
+    /// is the composition root's business, and parsing the command line is the CLI's.</summary>
+    [Theory]
+    [InlineData("Nli")]
+    [InlineData("Models")]
+    [InlineData("LocalModel")]
+    public void Application_DoesNotDependOnModelSideAdapters(string adapter)
+    {
+        IArchRule rule = TypesIn(ApplicationAssembly).Should().NotDependOnAny(TypesIn(AdapterNamed(adapter)));
+
+        rule.Check(Loaded);
+        Assert.DoesNotContain(ApplicationAssembly.GetReferencedAssemblies(), r => r.Name == AdapterNamed(adapter).GetName().Name);
+    }
+
+    [Fact]
+    public void Application_DoesNotParseTheCommandLine()
+    {
+        IArchRule rule = TypesIn(ApplicationAssembly).Should()
+            .NotDependOnAny(Referenced().That().ResideInNamespaceMatching("^System\\.CommandLine(\\..*)?$"));
+
+        rule.Check(Loaded);
+        Assert.False(TypesIn(CliAssembly).Should()
+            .NotDependOnAny(Referenced().That().ResideInNamespaceMatching("^System\\.CommandLine(\\..*)?$")).HasNoViolations(Loaded));
+    }
+
     [Fact]
     public void Rules_SeeDependenciesThatExist()
     {
@@ -121,6 +151,8 @@ public sealed class DependencyRuleTests
             .NotDependOnAny(Referenced().That().ResideInNamespaceMatching("^Google\\.OrTools(\\..*)?$")).HasNoViolations(Loaded));
         Assert.False(TypesIn(NliAssembly).Should()
             .NotDependOnAny(Referenced().That().HaveFullName("System.IO.File")).HasNoViolations(Loaded));
+        Assert.False(TypesIn(LocalModelAssembly).Should()
+            .NotDependOnAny(Referenced().That().ResideInNamespaceMatching("^Microsoft\\.ML\\.OnnxRuntimeGenAI(\\..*)?$")).HasNoViolations(Loaded));
         Assert.False(TypesIn(CliAssembly).Should()
             .NotDependOnAny(Referenced().That().HaveFullName("System.Console")).HasNoViolations(Loaded));
     }

@@ -1,5 +1,4 @@
 using System.Text.Json;
-using Plumbline.Cli.Running;
 using Plumbline.Cli.Tests.Doubles;
 
 namespace Plumbline.Cli.Tests.Commands;
@@ -69,28 +68,5 @@ public sealed class ExportWcnfTests
 
         Assert.Equal(3, check.ExitCode);
         Assert.Equal(["c1.wcnf"], Directory.GetFiles(export).Select(Path.GetFileName));
-    }
-
-    [Theory]
-    [InlineData("c1", "c1")]
-    [InlineData("a/b", "a_b")]
-    [InlineData("..", "_..")]
-    [InlineData("", "_")]
-    [InlineData("é x", "__x")]
-    public void UniqueName_UnsafeCharacters_BecomeUnderscores(string id, string expected)
-    {
-        using var folder = new TempDirectory();
-        var export = WcnfExport.Open(folder.Path);
-
-        Assert.Equal(expected, export.UniqueName(id));
-    }
-
-    [Fact]
-    public void UniqueName_TwoIdsWithTheSameFileName_GetDistinctNames()
-    {
-        using var folder = new TempDirectory();
-        var export = WcnfExport.Open(folder.Path);
-
-        Assert.Equal(["a_b", "a_b-2", "a_b-3"], new[] { export.UniqueName("a/b"), export.UniqueName("a_b"), export.UniqueName("a:b") });
     }
 }

@@ -38,12 +38,12 @@ public sealed class SweepCommandTests
     }
 
     [Fact]
-    public async Task Sweep_BadLineAfterJudgedClaims_ExitsThreeAndReportsWhatWasJudged()
+    public async Task Sweep_BadLine_ReportedSkippedAndTheOthersJudgedExitThree()
     {
         using var folder = new TempDirectory();
         var recording = await Recordings.WriteAsync(folder.File("rec.jsonl"), (TestClaims.Bats, 0.9), (TestClaims.Sun, 0.2));
         var claims = folder.Write("claims.jsonl",
-            $"{{\"id\": \"bats\", \"claim\": \"{TestClaims.Bats}\"}}\n{{\"id\": \"sun\", \"claim\": \"{TestClaims.Sun}\", \"gold\": \"no\"}}\n");
+            $"{{\"id\": \"sun\", \"claim\": \"{TestClaims.Sun}\", \"gold\": \"maybe\"}}\n{{\"id\": \"bats\", \"claim\": \"{TestClaims.Bats}\"}}\n");
 
         var result = await Plumb.RunAsync("sweep", claims, "--model", "recording:" + recording, "--format", "json");
 
@@ -51,23 +51,25 @@ public sealed class SweepCommandTests
         using var report = JsonDocument.Parse(result.Output);
         Assert.Equal(["bats"], ReportJson.Ids(report));
         Assert.NotEqual("failed", ReportJson.Status(report, "bats"));
-        var line = Assert.Single(result.ErrorLines);
-        Assert.StartsWith($"plumb: {claims}:2: gold: expected true, false or null, found a string", line);
-        Assert.EndsWith("stopped after 1 claim(s)", line);
+        var problem = Assert.Single(report.RootElement.GetProperty("completion").GetProperty("problems").EnumerateArray());
+        Assert.Equal($"{claims}:1: gold: unknown label 'maybe' (use true, false, yes, no, 1 or 0, or leave it out)", problem.GetProperty("message").GetString());
+        Assert.Equal($"plumb: {claims}:1: gold: unknown label 'maybe' (use true, false, yes, no, 1 or 0, or leave it out)", Assert.Single(result.ErrorLines));
     }
 
     [Fact]
-    public async Task Sweep_BadFirstLine_ExitsTwoAndWritesNoReport()
+    public async Task Sweep_BadLineWithStrictInput_ExitsTwoAndJudgesNothing()
     {
         using var folder = new TempDirectory();
         var recording = await Recordings.WriteAsync(folder.File("rec.jsonl"), (TestClaims.Bats, 0.9));
-        var claims = folder.Write("claims.jsonl", $"{{\"id\": \"bats\"}}\n{{\"claim\": \"{TestClaims.Bats}\"}}\n");
+        var claims = folder.Write("claims.jsonl", $"{{\"claim\": \"{TestClaims.Bats}\"}}\n{{\"id\": \"bats\"}}\n");
 
-        var result = await Plumb.RunAsync("sweep", claims, "--model", "recording:" + recording, "--format", "json");
+        var result = await Plumb.RunAsync("sweep", claims, "--model", "recording:" + recording, "--format", "json", "--strict-input");
 
         Assert.Equal(2, result.ExitCode);
         Assert.Empty(result.Output);
-        Assert.Equal($"plumb: {claims}:1: claim: missing or empty", Assert.Single(result.ErrorLines));
+        Assert.Equal(
+            [$"plumb: {claims}:2: claim: missing or empty", $"plumb: {claims}: 1 bad line(s); nothing was judged (--strict-input)"],
+            result.ErrorLines);
     }
 
     [Fact]

@@ -21,7 +21,10 @@ internal sealed class PlumbProcess : IDisposable
 
     public int Id => process.Id;
 
-    public static PlumbProcess Start(string workingDirectory, params string[] args)
+    public static PlumbProcess Start(string workingDirectory, params string[] args) => Start(workingDirectory, null, args);
+
+    /// <summary>Starts plumb with extra environment variables (added to, or replacing, the test process's own).</summary>
+    public static PlumbProcess Start(string workingDirectory, IReadOnlyDictionary<string, string>? environment, params string[] args)
     {
         var start = new ProcessStartInfo(Environment.GetEnvironmentVariable("DOTNET_HOST_PATH") ?? "dotnet")
         {
@@ -31,6 +34,11 @@ internal sealed class PlumbProcess : IDisposable
             RedirectStandardInput = true,
             UseShellExecute = false,
         };
+        foreach (var (name, value) in environment ?? new Dictionary<string, string>())
+        {
+            start.Environment[name] = value;
+        }
+
         start.ArgumentList.Add(PlumbDll);
         foreach (var arg in args)
         {
@@ -67,6 +75,13 @@ internal sealed class PlumbProcess : IDisposable
     {
         using var kill = Process.Start("kill", ["-INT", process.Id.ToString(System.Globalization.CultureInfo.InvariantCulture)]);
         await kill.WaitForExitAsync();
+    }
+
+    /// <summary>Ends the process at once (SIGKILL), as a crash or an out-of-memory kill would.</summary>
+    public void Kill()
+    {
+        process.Kill(entireProcessTree: true);
+        process.WaitForExit();
     }
 
     public void Dispose()

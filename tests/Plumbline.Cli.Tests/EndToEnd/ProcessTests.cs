@@ -30,7 +30,7 @@ public sealed class ProcessTests
         var export = folder.File("wcnf");
         var recording = Path.Combine(SampleSweep.RepositoryRoot, SampleSweep.Scenario, "recording.jsonl");
 
-        using var run = PlumbProcess.Start(SampleSweep.RepositoryRoot, "sweep", claims, "--model", "recording:" + recording, "--format", "json", "--export-wcnf", export);
+        using var run = PlumbProcess.Start(SampleSweep.RepositoryRoot, "sweep", claims, "--model", "recording:" + recording, "--format", "json", "--export-wcnf", export, "--quiet");
         // The first exported problem shows that a verdict is finished.
         var waited = TimeSpan.Zero;
         while (!(Directory.Exists(export) && Directory.EnumerateFiles(export).Any()) && waited < TimeSpan.FromMinutes(3))
@@ -47,6 +47,7 @@ public sealed class ProcessTests
         var ids = ReportJson.Ids(report);
         Assert.InRange(ids.Count, 1, sample.Count * 20 - 1);
         Assert.Equal(ids.Count, report.RootElement.GetProperty("figures").GetProperty("claims").GetInt32());
-        Assert.Matches($"^plumb: interrupted; stopped after {ids.Count} claim\\(s\\)$", Assert.Single(result.ErrorLines));
+        Assert.Equal($"plumb: interrupted; {ids.Count} claim(s) finished, {sample.Count * 20 - ids.Count} not judged", Assert.Single(result.ErrorLines));
+        Assert.Equal(sample.Count * 20 - ids.Count, report.RootElement.GetProperty("completion").GetProperty("not_judged").GetArrayLength());
     }
 }

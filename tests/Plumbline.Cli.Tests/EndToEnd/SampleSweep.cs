@@ -14,7 +14,7 @@ public sealed class SampleSweep : IAsyncLifetime
     public async Task InitializeAsync() =>
         Result = await PlumbProcess.RunAsync(
             RepositoryRoot,
-            "sweep", $"{Scenario}/claims.jsonl", "--model", $"recording:{Scenario}/recording.jsonl", "--format", "json");
+            "sweep", $"{Scenario}/claims.jsonl", "--model", $"recording:{Scenario}/recording.jsonl", "--format", "json", "--quiet");
 
     public Task DisposeAsync() => Task.CompletedTask;
 }

@@ -89,35 +89,16 @@ public sealed class RunFiguresTests
     }
 
     [Fact]
-    public void Create_StartedAndFinished_WallTimeAndSchemaVersion()
+    public void Tally_AddedOneByOne_SameFiguresAsTheList()
     {
-        var started = new DateTimeOffset(2025, 1, 2, 3, 4, 5, TimeSpan.Zero);
-        var settings = RunSettings.From(CoherenceOptions.Default, "scripted", "nli", "exhaustive", seed: 7);
+        var tally = new RunTally();
+        foreach (var verdict in Verdicts)
+        {
+            tally.Add(verdict);
+        }
 
-        var report = RunReport.Create("0.1.0", settings, started, started.AddMinutes(2), Verdicts);
-
-        Assert.Equal(RunReport.CurrentSchemaVersion, report.SchemaVersion);
-        Assert.Equal(TimeSpan.FromMinutes(2), report.Figures.WallTime);
-        Assert.Equal((3, 1000, PromptBook.PromptVersion), (report.Settings.Shape.Levels[0].Width, report.Settings.WeightScale, report.Settings.PromptVersion));
-    }
-
-    [Fact]
-    public void Serialize_Report_RoundTripsWithoutTheProblem()
-    {
-        var started = new DateTimeOffset(2025, 1, 2, 3, 4, 5, TimeSpan.Zero);
-        var settings = RunSettings.From(CoherenceOptions.Default, "scripted", "nli", "exhaustive", seed: null);
-        var tree = new ExplanationTree([new Statement(0, "C", "Not C", true, 0, null, null, 0.6, 0.3, Integrity.IntegralTrue, 2.0 / 3, true)]);
-        var problem = new CoherenceProblem(new MaxSatProblem(1, [WeightedClause.Soft(667, 1)]), [ClauseOrigin.Belief(0)], [0], 1000);
-        var report = RunReport.Create("0.1.0", settings, started, started.AddSeconds(3), [Verdicts[0] with { Tree = tree, Problem = problem }, Verdicts[4]]);
-
-        var back = JsonSerializer.Deserialize<RunReport>(JsonSerializer.Serialize(report))!;
-
-        Assert.Equal(report.Figures with { DirectAccuracy = null, CoherentAccuracy = null }, back.Figures with { DirectAccuracy = null, CoherentAccuracy = null });
-        Assert.Equal(report.Figures.CoherentAccuracy, back.Figures.CoherentAccuracy);
-        Assert.Equal(report.Verdicts[0].Tree!.Statements, back.Verdicts[0].Tree!.Statements);
-        Assert.Equal(report.Settings.Shape.Levels[1].Decoding.IsGreedy, back.Settings.Shape.Levels[1].Decoding.IsGreedy);
-        Assert.Null(back.Verdicts[0].Problem);
-        Assert.Equal("claim e: broken", back.Verdicts[1].Error);
+        Assert.Equal(RunFigures.From(Verdicts, TimeSpan.FromSeconds(9)), tally.ToFigures(TimeSpan.FromSeconds(9)));
+        Assert.Equal((Verdicts.Length, Verdicts.Count(v => v.IsFailed)), (tally.Claims, tally.Failed));
     }
 
     [Fact]

@@ -75,18 +75,20 @@ public sealed class ResilienceTests
     }
 
     [Fact]
-    public async Task RequestsPerMinute_SpacesRequestsOut()
+    public async Task RequestsPerMinute_OnceTheMinutesAllowanceIsSpent_WaitsForRefills()
     {
         await using var server = await LoopbackModelServer.StartAsync();
-        // 60 a minute: one token a second after the first 60; spend them, then time the next two.
-        var limited = Endpoint.Options(calls: Endpoint.Quick() with { RequestsPerMinute = 60 });
+        // 30 a minute: a bucket of 30, one more every 2 s. The set-up check is not counted.
+        var limited = Endpoint.Options(calls: Endpoint.Quick() with { RequestsPerMinute = 30 });
         var opened = await Endpoint.OpenAsync(server, limited);
         await using var model = opened.Model;
-        await Task.WhenAll(Enumerable.Range(0, 59).Select(i => model.ScoreAnswersAsync(new AnswerRequest($"s{i}", PromptBook.Answer($"s{i}")), CancellationToken.None)));
+        await Task.WhenAll(Enumerable.Range(0, 30).Select(i => model.ScoreAnswersAsync(new AnswerRequest($"s{i}", PromptBook.Answer($"s{i}")), CancellationToken.None)));
 
+        // Three more need at least two refills, a full period apart, even if one came while the bucket was being spent.
         var clock = Stopwatch.StartNew();
-        await Task.WhenAll(Enumerable.Range(0, 2).Select(i => model.ScoreAnswersAsync(new AnswerRequest($"t{i}", PromptBook.Answer($"t{i}")), CancellationToken.None)));
+        await Task.WhenAll(Enumerable.Range(0, 3).Select(i => model.ScoreAnswersAsync(new AnswerRequest($"more {i}", PromptBook.Answer($"more {i}")), CancellationToken.None)));
 
-        Assert.True(clock.Elapsed >= TimeSpan.FromMilliseconds(900), $"two requests over the limit took only {clock.Elapsed}");
+        Assert.True(clock.Elapsed >= TimeSpan.FromMilliseconds(1500), $"three requests over the allowance took only {clock.Elapsed}");
+        Assert.Equal(34, server.Requests);
     }
 }

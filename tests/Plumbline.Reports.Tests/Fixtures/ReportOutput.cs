@@ -1,5 +1,5 @@
 using System.Text;
-using Plumbline.Core.Runs;
+using Plumbline.Reports.Model;
 
 namespace Plumbline.Reports.Tests.Fixtures;
 

@@ -5,6 +5,7 @@ using Plumbline.Core.Language;
 using Plumbline.Core.MaxSat;
 using Plumbline.Core.Runs;
 using Plumbline.Core.Trees;
+using Plumbline.Reports.Model;
 
 namespace Plumbline.Reports.Tests.Fixtures;
 
@@ -27,6 +28,12 @@ public static class SampleReports
         solver: "cp-sat 9.15",
         seed: 7);
 
+    /// <summary>
+    /// Claim true, #1 true, #2 false in the optimum. Links #1 entails #0 (0.912345) and #2 contradicts #0 (0.987654);
+    /// the reverse direction #0 -> #2 also scores contradiction (0.91) but is not in the link list. The best
+    /// assignment with the claim false breaks "#1 entails #0" (index 2) and "belief: #2" (index 4); the optimum
+    /// breaks only "belief: #2", so "#1 entails #0" alone decided the answer.
+    /// </summary>
     public static Verdict Settled { get; } = new(
         new Claim("c1", "Water boils at 100 degrees Celsius at sea level.", Gold: true, Tags: ["physics", "easy"]),
         Answer: true,
@@ -53,7 +60,24 @@ public static class SampleReports
         ModelCalls: 14,
         new TokenUsage(900, 210),
         ProbabilitiesEstimated: false,
-        new VerdictTimings(TimeSpan.FromMilliseconds(812.34), TimeSpan.FromMilliseconds(40.06), TimeSpan.FromMilliseconds(3.3)));
+        new VerdictTimings(TimeSpan.FromMilliseconds(812.34), TimeSpan.FromMilliseconds(40.06), TimeSpan.FromMilliseconds(3.3)))
+    {
+        Pairs =
+        [
+            new PairScore(0, 1, new EntailmentScores(0.2, 0.7, 0.1)),
+            new PairScore(0, 2, new EntailmentScores(0.04, 0.05, 0.91)),
+            new PairScore(1, 0, new EntailmentScores(0.912345, 0.08, 0.007655)),
+            new PairScore(1, 2, new EntailmentScores(0.1, 0.8, 0.1)),
+            new PairScore(2, 0, new EntailmentScores(0.002346, 0.01, 0.987654)),
+            new PairScore(2, 1, new EntailmentScores(0.15, 0.7, 0.15)),
+        ],
+        Values = new Dictionary<int, bool> { [0] = true, [1] = true, [2] = false },
+        FalsifiedWithOtherAnswer =
+        [
+            new FalsifiedClause(2, ClauseOrigin.Entails(1, 0), [-2, 1], 1.0),
+            new FalsifiedClause(4, ClauseOrigin.Belief(2), [-3], 0.13043),
+        ],
+    };
 
     public static Verdict Overturned { get; } = new(
         new Claim("c2", "Glass is a liquid.", Gold: false),
@@ -77,7 +101,19 @@ public static class SampleReports
         ModelCalls: 11,
         new TokenUsage(700, 160),
         ProbabilitiesEstimated: true,
-        new VerdictTimings(TimeSpan.FromMilliseconds(640), TimeSpan.FromMilliseconds(22.5), TimeSpan.FromMilliseconds(2)));
+        new VerdictTimings(TimeSpan.FromMilliseconds(640), TimeSpan.FromMilliseconds(22.5), TimeSpan.FromMilliseconds(2)))
+    {
+        Pairs =
+        [
+            new PairScore(0, 1, new EntailmentScores(0.3, 0.6, 0.1)),
+            new PairScore(0, 2, new EntailmentScores(0.05, 0.1, 0.85)),
+            new PairScore(1, 0, new EntailmentScores(0.3, 0.6, 0.1)),
+            new PairScore(1, 2, new EntailmentScores(0.02, 0.05, 0.93)),
+            new PairScore(2, 0, new EntailmentScores(0.02, 0.03, 0.95)),
+            new PairScore(2, 1, new EntailmentScores(0.1, 0.5, 0.4)),
+        ],
+        Values = new Dictionary<int, bool> { [0] = false, [1] = false, [2] = true },
+    };
 
     public const string FailureReason = "claim c3: building the explanation tree failed: backend answered HTTP 503";
 
@@ -89,13 +125,26 @@ public static class SampleReports
         timings: new VerdictTimings(TimeSpan.FromMilliseconds(120), TimeSpan.Zero, TimeSpan.Zero));
 
     /// <summary>Settled (gold true), overturned (gold false), failed: direct accuracy 1 of 2, coherent 2 of 2.</summary>
-    public static RunReport Mixed() =>
-        RunReport.Create("0.1.0", Settings, Started, Started.AddSeconds(4.5), [Settled, Overturned, Failed]);
+    public static RunReport Mixed() => Report([Settled, Overturned, Failed], Started.AddSeconds(4.5));
 
     /// <summary>The same run with the gold labels removed, so no accuracy can be computed.</summary>
     public static RunReport WithoutGold() =>
-        RunReport.Create("0.1.0", Settings, Started, Started.AddMilliseconds(350),
-            [.. new[] { Settled, Overturned, Failed }.Select(v => v with { Claim = v.Claim with { Gold = null } })]);
+        Report([.. new[] { Settled, Overturned, Failed }.Select(v => v with { Claim = v.Claim with { Gold = null } })], Started.AddMilliseconds(350));
+
+    /// <summary>A finished report of <paramref name="verdicts"/>, figures folded from them, claims in memory.</summary>
+    public static RunReport Report(
+        IReadOnlyList<Verdict> verdicts,
+        DateTimeOffset finished,
+        PairListing listing = PairListing.Linked,
+        RunCompletion? completion = null,
+        IReadOnlyList<GateResult>? gates = null) =>
+        new(
+            RunHeader.Create("0.1.0", Settings, Started, listing),
+            finished,
+            RunFigures.From(verdicts, finished - Started),
+            gates ?? [],
+            completion ?? RunCompletion.Complete,
+            new ClaimReportList([.. verdicts.Select(v => ClaimReportBuilder.From(v, listing))]));
 
     private static Statement Root(string text, double pTrue, double pNegation, Integrity integrity) =>
         new(0, text, "It is not true that " + text, false, 0, null, null, pTrue, pNegation, integrity,

@@ -1,5 +1,6 @@
 using System.Text.Json;
 using Plumbline.Core.Runs;
+using Plumbline.Reports.Model;
 using Plumbline.Reports.Json;
 using Plumbline.Reports.Tests.Fixtures;
 using Plumbline.Reports.Tests.Schema;
@@ -12,6 +13,8 @@ public sealed class JsonReportWriterTests
         JsonDocument.Parse(await ReportOutput.TextAsync(new JsonReportWriter(), report));
 
     private static JsonElement Claim(JsonDocument document, int index) => document.RootElement.GetProperty("claims")[index];
+
+    private static string Ids(JsonElement array) => string.Join(' ', array.EnumerateArray().Select(e => e.GetInt32()));
 
     [Fact]
     public async Task WriteAsync_MixedReport_ValidatesAgainstSchema()
@@ -40,9 +43,9 @@ public sealed class JsonReportWriterTests
     {
         using var document = await WriteAsync(SampleReports.Mixed());
 
-        string[] expected = ["schema_version", "plumbline_version", "notice", "settings", "started", "finished", "figures", "claims"];
+        string[] expected = ["schema_version", "plumbline_version", "notice", "settings", "started", "finished", "figures", "gates", "completion", "claims"];
         Assert.Equal(expected, document.RootElement.EnumerateObject().Select(p => p.Name));
-        Assert.Equal(RunReport.CurrentSchemaVersion, document.RootElement.GetProperty("schema_version").GetInt32());
+        Assert.Equal(2, document.RootElement.GetProperty("schema_version").GetInt32());
         Assert.Equal(ReportNotice.Text, document.RootElement.GetProperty("notice").GetString());
     }
 
@@ -54,7 +57,7 @@ public sealed class JsonReportWriterTests
         string[] expected =
         [
             "id", "claim", "gold", "tags", "answer", "direct_answer", "status", "margin", "two_sided",
-            "probabilities_estimated", "counts", "statements", "links", "falsified_clauses", "solve_status",
+            "probabilities_estimated", "counts", "statements", "links", "pairs", "falsified_clauses", "deciding_clauses", "solve_status",
             "objective_cost", "model_calls", "tokens", "timings_ms", "error",
         ];
         Assert.Equal(expected, Claim(document, 0).EnumerateObject().Select(p => p.Name));
@@ -219,11 +222,88 @@ public sealed class JsonReportWriterTests
     [Fact]
     public async Task WriteAsync_NotANumberMargin_ThrowsNamingTheField()
     {
-        var broken = SampleReports.Mixed() with { Verdicts = [SampleReports.Settled with { Margin = double.NaN }] };
+        var broken = SampleReports.Report([SampleReports.Settled with { Margin = double.NaN }], SampleReports.Started.AddSeconds(1));
 
         var error = await Assert.ThrowsAsync<ArgumentException>(() => ReportOutput.BytesAsync(new JsonReportWriter(), broken));
 
-        Assert.Contains("claims[c1].margin", error.Message, StringComparison.Ordinal);
+        // The summary (with the mean margin) precedes the claims, so the run-level field is the first to refuse it.
+        Assert.Contains("figures.mean_margin", error.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task WriteAsync_Statements_ValueInTheOptimumAndTheLinksTouchingEach()
+    {
+        using var document = await WriteAsync(SampleReports.Mixed());
+        var statements = Claim(document, 0).GetProperty("statements");
+
+        // The fixture's optimum: #0 true, #1 true, #2 false; #3 was pruned and has no value.
+        Assert.Equal(["True", "True", "False", "Null"], statements.EnumerateArray().Select(s => s.GetProperty("value").ValueKind.ToString()));
+        // #0 is touched by both links, #1 by the entailment only, #3 by none.
+        Assert.Equal([(1, 0), (2, 0)], statements[0].GetProperty("links").EnumerateArray().Select(l => (l.GetProperty("from").GetInt32(), l.GetProperty("to").GetInt32())));
+        Assert.Equal(["entailment"], statements[1].GetProperty("links").EnumerateArray().Select(l => l.GetProperty("kind").GetString()));
+        Assert.Equal(0, statements[3].GetProperty("links").GetArrayLength());
+    }
+
+    [Fact]
+    public async Task WriteAsync_Pairs_EachLinkedPairOnceWithBothDirections()
+    {
+        using var document = await WriteAsync(SampleReports.Mixed());
+        var pairs = Claim(document, 0).GetProperty("pairs");
+
+        // Linked pairs of the settled claim: {0,1} (1 -> 0 entails) and {0,2} (2 -> 0 contradicts); {1,2} has no link.
+        Assert.Equal([(0, 1), (0, 2)], pairs.EnumerateArray().Select(p => (p.GetProperty("first").GetInt32(), p.GetProperty("second").GetInt32())));
+        var contradiction = pairs[1];
+        Assert.Equal("contradiction", contradiction.GetProperty("forward").GetProperty("label").GetString());
+        Assert.Equal("0.91", contradiction.GetProperty("forward").GetProperty("contradiction").GetRawText());
+        Assert.Equal("0.9877", contradiction.GetProperty("backward").GetProperty("contradiction").GetRawText());
+        Assert.Equal("neutral", pairs[0].GetProperty("forward").GetProperty("label").GetString());
+        Assert.Equal("entailment", pairs[0].GetProperty("backward").GetProperty("label").GetString());
+    }
+
+    [Fact]
+    public async Task WriteAsync_VerboseListing_AllThreePairs()
+    {
+        using var document = await WriteAsync(SampleReports.Report([SampleReports.Settled], SampleReports.Started.AddSeconds(1), PairListing.All));
+
+        var pairs = Claim(document, 0).GetProperty("pairs");
+        Assert.Equal(3, pairs.GetArrayLength());
+        Assert.False(pairs[2].GetProperty("linked").GetBoolean());
+        Assert.Equal("all", document.RootElement.GetProperty("settings").GetProperty("pairs_listed").GetString());
+    }
+
+    [Fact]
+    public async Task WriteAsync_Clauses_TypedWithTheirStatements()
+    {
+        using var document = await WriteAsync(SampleReports.Mixed());
+        var settled = Claim(document, 0);
+
+        var falsified = Assert.Single(settled.GetProperty("falsified_clauses").EnumerateArray());
+        Assert.Equal(("belief", "2"), (falsified.GetProperty("kind").GetString(), Ids(falsified.GetProperty("statements"))));
+        // Of the two clauses the other answer breaks, only "#1 entails #0" is kept by the optimum: it decided.
+        var deciding = Assert.Single(settled.GetProperty("deciding_clauses").EnumerateArray());
+        Assert.Equal(("entailment", "1 0", "#1 entails #0"),
+            (deciding.GetProperty("kind").GetString(), Ids(deciding.GetProperty("statements")), deciding.GetProperty("origin").GetString()));
+    }
+
+    [Fact]
+    public async Task WriteAsync_GatesAndCompletion_AsGiven()
+    {
+        var completion = new RunCompletion("interrupted", ["c4", "c5"], [new RunProblem("input", "claims.jsonl:3: gold: unknown label 'maybe'")]);
+        var gates = new[] { new GateResult("coherent_accuracy", 0.5, ">=", 0.75, false) };
+        var report = SampleReports.Report([SampleReports.Settled], SampleReports.Started.AddSeconds(1), completion: completion, gates: gates);
+        var json = await ReportOutput.TextAsync(new JsonReportWriter(), report);
+        using var document = JsonDocument.Parse(json);
+
+        var gate = Assert.Single(document.RootElement.GetProperty("gates").EnumerateArray());
+        Assert.Equal(("coherent_accuracy", 0.5, ">=", 0.75, false),
+            (gate.GetProperty("name").GetString(), gate.GetProperty("value").GetDouble(), gate.GetProperty("comparison").GetString(),
+             gate.GetProperty("threshold").GetDouble(), gate.GetProperty("passed").GetBoolean()));
+        var written = document.RootElement.GetProperty("completion");
+        Assert.False(written.GetProperty("complete").GetBoolean());
+        Assert.Equal("interrupted", written.GetProperty("stopped_because").GetString());
+        Assert.Equal(["c4", "c5"], written.GetProperty("not_judged").EnumerateArray().Select(e => e.GetString()));
+        Assert.Equal("input", written.GetProperty("problems")[0].GetProperty("source").GetString());
+        Assert.True(ReportSchemaFile.Evaluate(json).IsValid, ReportSchemaFile.Describe(ReportSchemaFile.Evaluate(json)));
     }
 
     [Fact]

@@ -13,7 +13,16 @@ public static class ReportSchemaFile
 {
     public const string SolutionFile = "Plumbline.slnx";
 
-    private static readonly Lazy<JsonSchema> Schema = new(() => Build(File.ReadAllText(PathOf(1))));
+    /// <summary>The report version this build writes (kept here so that linking this file needs nothing else).</summary>
+    public const int CurrentVersion = 2;
+
+    private static readonly Lazy<(JsonSchema Report, JsonSchema Lines)> Schemas = new(() =>
+    {
+        var registry = new SchemaRegistry();
+        var report = JsonSchema.FromText(File.ReadAllText(PathOf(CurrentVersion)), new BuildOptions { SchemaRegistry = registry });
+        var lines = JsonSchema.FromText(File.ReadAllText(LinesPathOf(CurrentVersion)), new BuildOptions { SchemaRegistry = registry });
+        return (report, lines);
+    });
 
     public static string RepositoryRoot()
     {
@@ -32,15 +41,24 @@ public static class ReportSchemaFile
     public static string PathOf(int version) =>
         Path.Combine(RepositoryRoot(), "schemas", $"plumbline-report-{version}.schema.json");
 
+    /// <summary>schemas/plumbline-lines-{version}.schema.json: one JSON Lines record.</summary>
+    public static string LinesPathOf(int version) =>
+        Path.Combine(RepositoryRoot(), "schemas", $"plumbline-lines-{version}.schema.json");
+
     /// <summary>Builds a schema in a registry of its own, so that building it twice never clashes on its $id.</summary>
     public static JsonSchema Build(string schemaText) =>
         JsonSchema.FromText(schemaText, new BuildOptions { SchemaRegistry = new SchemaRegistry() });
 
-    /// <summary>Evaluates a document against the committed schema, checking formats such as date-time too.</summary>
-    public static EvaluationResults Evaluate(string json)
+    /// <summary>Evaluates a document against the committed report schema, checking formats such as date-time too.</summary>
+    public static EvaluationResults Evaluate(string json) => Evaluate(Schemas.Value.Report, json);
+
+    /// <summary>Evaluates one JSON Lines record against the committed lines schema.</summary>
+    public static EvaluationResults EvaluateLine(string line) => Evaluate(Schemas.Value.Lines, line);
+
+    private static EvaluationResults Evaluate(JsonSchema schema, string json)
     {
         using var document = JsonDocument.Parse(json);
-        return Schema.Value.Evaluate(document.RootElement, new EvaluationOptions
+        return schema.Evaluate(document.RootElement, new EvaluationOptions
         {
             OutputFormat = OutputFormat.List,
             RequireFormatValidation = true,

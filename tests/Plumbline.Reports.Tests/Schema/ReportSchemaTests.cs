@@ -1,6 +1,6 @@
 using System.Text.Json;
 using System.Text.Json.Nodes;
-using Plumbline.Core.Runs;
+using Plumbline.Reports.Model;
 using Plumbline.Reports.Json;
 using Plumbline.Reports.Tests.Fixtures;
 
@@ -27,7 +27,12 @@ public sealed class ReportSchemaTests
         ["failed claim with answer"] = r => Claim(r, 2)["answer"] = true,
         ["negative margin"] = r => Claim(r, 0)["margin"] = -0.5,
         ["started not a date-time"] = r => r["started"] = "yesterday",
-        ["schema version 2"] = r => r["schema_version"] = 2,
+        ["schema version 1"] = r => r["schema_version"] = 1,
+        ["statement without value"] = r => ((JsonObject)Claim(r, 0)["statements"]![0]!).Remove("value"),
+        ["pair without backward scores"] = r => ((JsonObject)Claim(r, 0)["pairs"]![0]!).Remove("backward"),
+        ["clause kind unknown"] = r => Claim(r, 0)["falsified_clauses"]![0]!["kind"] = "hunch",
+        ["completion missing"] = r => r.Remove("completion"),
+        ["gate without result"] = r => r["gates"] = new JsonArray(new JsonObject { ["name"] = "g", ["value"] = 1, ["comparison"] = ">=", ["threshold"] = 1 }),
         ["notice missing"] = r => r.Remove("notice"),
         ["weighting unknown"] = r => r["settings"]!["weighting"] = "heavy",
         ["accuracy without interval"] = r => ((JsonObject)r["figures"]!["direct_accuracy"]!).Remove("wilson_95"),
@@ -65,14 +70,14 @@ public sealed class ReportSchemaTests
     [Fact]
     public void SchemaFile_Version_MatchesReportVersion()
     {
-        var path = ReportSchemaFile.PathOf(RunReport.CurrentSchemaVersion);
+        var path = ReportSchemaFile.PathOf(RunHeader.CurrentSchemaVersion);
         using var schema = JsonDocument.Parse(File.ReadAllText(path));
         var root = schema.RootElement;
 
         Assert.Equal(ReportSchema.FileName, Path.GetFileName(path));
         Assert.Equal("https://json-schema.org/draft/2020-12/schema", root.GetProperty("$schema").GetString());
         Assert.Equal(ReportSchema.Id.ToString(), root.GetProperty("$id").GetString());
-        Assert.Equal(RunReport.CurrentSchemaVersion,
+        Assert.Equal(RunHeader.CurrentSchemaVersion,
             root.GetProperty("properties").GetProperty("schema_version").GetProperty("const").GetInt32());
     }
 

@@ -1,3 +1,5 @@
+using Plumbline.Core.Runs;
+using Plumbline.Reports.Model;
 using Plumbline.Reports.Tests.Fixtures;
 using Plumbline.Reports.Text;
 
@@ -5,22 +7,40 @@ namespace Plumbline.Reports.Tests.Text;
 
 public sealed class TextReportWriterTests
 {
-    private static async Task<string[]> LinesAsync(bool colour = false) =>
-        (await ReportOutput.TextAsync(new TextReportWriter(colour), SampleReports.Mixed())).Split('\n');
+    private static async Task<string[]> LinesAsync(bool colour = false, RunReport? report = null) =>
+        (await ReportOutput.TextAsync(new TextReportWriter(colour), report ?? SampleReports.Mixed())).Split('\n');
 
+    private static int At(string[] lines, string line)
+    {
+        var at = Array.IndexOf(lines, line);
+        Assert.True(at >= 0, $"no line \"{line}\" in:\n{string.Join('\n', lines)}");
+        return at;
+    }
+
+    /// <summary>
+    /// Beliefs by hand from the fixture's probabilities: #0 0.91 / (0.91 + 0.07) = 0.93, #1 0.95 / 0.98 = 0.97,
+    /// #2 0.12 / 0.92 = 0.13, #3 0.6 / 1.15 = 0.52. Values from the fixture's optimum; #3 is pruned.
+    /// </summary>
     [Fact]
-    public async Task WriteAsync_SettledClaim_KeyLines()
+    public async Task WriteAsync_SettledClaim_AnswerLineThenTreeOutlineThenWhatDecided()
     {
         var lines = await LinesAsync();
 
-        var at = Array.IndexOf(lines, "c1  Water boils at 100 degrees Celsius at sea level.");
-        Assert.True(at >= 0, string.Join('\n', lines));
-        Assert.Equal("    answer true | direct answer true | gold true", lines[at + 1]);
-        Assert.Equal("    status settled | margin 1.2346 | two-sided", lines[at + 2]);
-        Assert.Equal("    statements 3 kept, 1 pruned, 3 integral | falsified clauses 1", lines[at + 3]);
+        var at = At(lines, "c1  Water boils at 100 degrees Celsius at sea level.");
         Assert.Equal(
-            "    contradiction (p 0.9877): #2 \"Water boils at 90 degrees Celsius at sea level.\" vs #0 \"Water boils at 100 degrees Celsius at sea level.\"",
-            lines[at + 4]);
+            [
+                "  answer true | direct answer true | gold true | settled | margin 1.2346 | two-sided",
+                "  tree: 3 kept, 1 pruned, 3 integral (value in the optimum T/F, - pruned; b = belief)",
+                "    #0 T b0.93 Water boils at 100 degrees Celsius at sea level.",
+                "    \u251c\u2500 #1 T b0.97 [for true] At sea level the air pressure is one atmosphere.",
+                "    \u251c\u2500 #2 F b0.13 [for false] Water boils at 90 degrees Celsius at sea level.",
+                "    \u2514\u2500 #3 - b0.52 [for false] Boiling points never depend on pressure.",
+                "  decided by",
+                "    #1 entails #0 (weight 1.0, p 0.9123)",
+                "  contradictions",
+                "    #0 -> #2: contradiction 0.91; #2 -> #0: contradiction 0.9877",
+            ],
+            lines[(at + 1)..(at + 11)]);
     }
 
     [Fact]
@@ -28,35 +48,47 @@ public sealed class TextReportWriterTests
     {
         var lines = await LinesAsync();
 
-        var at = Array.IndexOf(lines, "c2  Glass is a liquid.");
-        Assert.True(at >= 0, string.Join('\n', lines));
-        Assert.Equal("    answer false | direct answer true | gold false", lines[at + 1]);
-        Assert.Equal("    status overturned | margin 0.5", lines[at + 2]);
+        var at = At(lines, "c2  Glass is a liquid.");
+        Assert.Equal("  answer false | direct answer true | gold false | overturned | margin 0.5", lines[at + 1]);
+        // Both contradictions of the claim, each pair once with both directions: {0,2} and {1,2}.
+        Assert.Contains("    #0 -> #2: contradiction 0.85; #2 -> #0: contradiction 0.95", lines);
+        Assert.Contains("    #1 -> #2: contradiction 0.93; #2 -> #1: neutral 0.50", lines);
     }
 
     [Fact]
-    public async Task WriteAsync_FailedClaim_ReasonShownWithoutMargin()
+    public async Task WriteAsync_FailedClaim_ReasonShownWithoutMarginOrTree()
     {
         var lines = await LinesAsync();
 
-        var at = Array.IndexOf(lines, "c3  The moon is made of cheese.");
-        Assert.True(at >= 0, string.Join('\n', lines));
-        Assert.Equal("    answer none | direct answer none | gold false", lines[at + 1]);
-        Assert.Equal("    status failed", lines[at + 2]);
-        Assert.Equal("    reason: " + SampleReports.FailureReason, lines[at + 3]);
+        var at = At(lines, "c3  The moon is made of cheese.");
+        Assert.Equal("  answer none | direct answer none | gold false | failed", lines[at + 1]);
+        Assert.Equal("  reason: " + SampleReports.FailureReason, lines[at + 2]);
     }
 
     [Fact]
-    public async Task WriteAsync_LongStatement_QuotedShortened()
+    public async Task WriteAsync_LongStatement_ShortenedInTheOutline()
     {
         var lines = await LinesAsync();
 
-        var line = Assert.Single(lines, l => l.Contains("#1 \"Glass is a liquid", StringComparison.Ordinal));
-        var start = line.IndexOf("#1 \"", StringComparison.Ordinal) + 4;
-        var quoted = line[start..line.IndexOf('"', start)];
-        Assert.InRange(quoted.Length, TextReportWriter.QuoteLength - 5, TextReportWriter.QuoteLength);
-        Assert.EndsWith("\u2026", quoted, StringComparison.Ordinal);
-        Assert.StartsWith(quoted[..^1], SampleReports.LongStatement, StringComparison.Ordinal);
+        var line = Assert.Single(lines, l => l.Contains("#1 F b0.30 [for true] Glass is a liquid", StringComparison.Ordinal));
+        var text = line[line.IndexOf("Glass", StringComparison.Ordinal)..];
+        Assert.Equal(TextReportWriter.StatementLength, text.Length);
+        Assert.EndsWith("\u2026", text, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task WriteAsync_Verbose_EveryPairListed()
+    {
+        var lines = await LinesAsync(report: SampleReports.Report([SampleReports.Settled], SampleReports.Started.AddSeconds(1), PairListing.All));
+
+        var at = At(lines, "  pairs");
+        Assert.Equal(
+            [
+                "    #0 -> #1: neutral 0.70; #1 -> #0: entailment 0.9123",
+                "    #0 -> #2: contradiction 0.91; #2 -> #0: contradiction 0.9877",
+                "    #1 -> #2: neutral 0.80; #2 -> #1: neutral 0.70",
+            ],
+            lines[(at + 1)..(at + 4)]);
     }
 
     [Fact]
@@ -71,6 +103,22 @@ public sealed class TextReportWriterTests
         Assert.Contains("    overturn rate 50.0% | contested rate 0.0% | two-sided rate 50.0% | mean margin 0.8673", lines);
         Assert.Contains("    links found 4 (1 entailment, 3 contradiction)", lines);
         Assert.Contains("    model calls 27 | tokens 2010 (1640 prompt, 370 completion) | wall time 4.5 s", lines);
+    }
+
+    [Fact]
+    public async Task WriteAsync_GatesAndStop_Shown()
+    {
+        var report = SampleReports.Report(
+            [SampleReports.Settled],
+            SampleReports.Started.AddSeconds(1),
+            completion: new RunCompletion("budget of 100 calls spent", ["c7"], []),
+            gates: [new GateResult("overturn_rate", 0.25, "<=", 0.2, false)]);
+
+        var lines = await LinesAsync(report: report);
+
+        Assert.Contains("    FAIL  overturn_rate = 0.25 (wanted <= 0.2)", lines);
+        Assert.Contains("Stopped: budget of 100 calls spent", lines);
+        Assert.Contains("    not judged (1): c7", lines);
     }
 
     [Fact]
@@ -89,7 +137,7 @@ public sealed class TextReportWriterTests
         var lines = await LinesAsync();
 
         Assert.Single(lines, l => l.Contains(ReportNotice.Text, StringComparison.Ordinal));
-        Assert.Equal("Notice: " + ReportNotice.Text, lines[^2]);
+        Assert.Equal("Note: " + ReportNotice.Text, lines[^2]);
         Assert.Equal(string.Empty, lines[^1]);
     }
 
@@ -102,13 +150,14 @@ public sealed class TextReportWriterTests
     }
 
     [Fact]
-    public async Task WriteAsync_WithColour_StatusesPainted()
+    public async Task WriteAsync_WithColour_StatusesAndValuesPainted()
     {
         var text = string.Join('\n', await LinesAsync(colour: true));
 
-        Assert.Contains("status \u001b[32msettled\u001b[0m", text, StringComparison.Ordinal);
-        Assert.Contains("status \u001b[33moverturned\u001b[0m", text, StringComparison.Ordinal);
-        Assert.Contains("status \u001b[31mfailed\u001b[0m", text, StringComparison.Ordinal);
+        Assert.Contains("| \u001b[32msettled\u001b[0m", text, StringComparison.Ordinal);
+        Assert.Contains("| \u001b[33moverturned\u001b[0m", text, StringComparison.Ordinal);
+        Assert.Contains("| \u001b[31mfailed\u001b[0m", text, StringComparison.Ordinal);
+        Assert.Contains("#0 \u001b[36mT\u001b[0m b0.93", text, StringComparison.Ordinal);
     }
 
     [Fact]
@@ -138,5 +187,5 @@ public sealed class TextReportWriterTests
     [InlineData("exactly ten", 11, "exactly ten")]
     [InlineData("one two three four", 9, "one two\u2026")]
     public void Shorten_Text_CutWithEllipsis(string text, int length, string expected) =>
-        Assert.Equal(expected, TextReportWriter.Shorten(text, length));
+        Assert.Equal(expected, ReportText.Shorten(text, length));
 }
