@@ -443,3 +443,54 @@ def held_out_added_detail(rows, seed, count):
     rng = random.Random(seed + 101)
     rng.shuffle(made)
     return [(p, h, l) for p, h, l, _ in made[:count]]
+
+
+
+def generate_negation_crossings(train, seed, quotas):
+    """Pairs where a negation stands on one side only, or on both, without making a contradiction, so that a
+    'not' alone is never read as one: P against the negation of a statement P contradicts (entailment: P rules it
+    out), P against the negation of a statement P leaves open (neutral), P with an added negated clause against P
+    (entailment) and the reverse (neutral), and two spellings of the same negation (entailment). Train premises only."""
+    rng = random.Random(seed + 3)
+    names = ("snli_test", "cad_train", "cad_test", "mnli_mismatched", "mnli_sni", "conjnli_adversarial")
+    rows = [(p, h, l) for name in names if name in train for p, h, l in train[name]
+            if 3 <= len(p.split()) <= 25 and 2 <= len(h.split()) <= 20]
+    rng.shuffle(rows)
+    out = []
+
+    def negated(sentence):
+        v = verbal_negation(sentence)
+        if v and rng.random() < 0.7:
+            return sentence_case(v)
+        return sentence_case(rng.choice(PREFIXES).format(lower_first(sentence)))
+
+    def take(source, label, candidates, quota):
+        made = 0
+        for pair in candidates:
+            if made >= quota:
+                break
+            if pair and pair[0] != pair[1]:
+                out.append((pair[0], pair[1], label, source))
+                made += 1
+
+    contradicting = [(p, h) for p, h, l in rows if l == "contradiction"]
+    neutral = [(p, h) for p, h, l in rows if l == "neutral"]
+    take("ruled_out", "entailment", ((p, negated(h)) for p, h in contradicting), quotas["ruled_out"])
+    take("left_open", "neutral", ((p, negated(h)) for p, h in neutral[: len(neutral) // 2]), quotas["left_open"])
+    half = neutral[len(neutral) // 2:]
+    take("negated_clause_part", "entailment",
+         ((conjoin(p, negated(h), rng), p) for p, h in half[: len(half) // 2]), quotas["negated_clause_part"])
+    take("negated_clause_added", "neutral",
+         ((p, conjoin(p, negated(h), rng)) for p, h in half[len(half) // 2:]), quotas["negated_clause_added"])
+
+    # Two training spellings of one negation (an auxiliary with 'not', and a fixed prefix): contractions stay
+    # out, because the held-out negation check uses them.
+    def respelled():
+        for p, _, _ in rows:
+            v = verbal_negation(p)
+            if v:
+                prefixed = sentence_case(rng.choice(PREFIXES).format(lower_first(p)))
+                yield (sentence_case(v), prefixed) if rng.random() < 0.5 else (prefixed, sentence_case(v))
+
+    take("negation_respelled", "entailment", respelled(), quotas["negation_respelled"])
+    return out

@@ -12,7 +12,7 @@ import time
 
 import torch
 
-from augment import generate, generate_restatements, held_out_added_detail
+from augment import generate, generate_negation_crossings, generate_restatements, held_out_added_detail
 from bert import PairClassifier, load_base_weights
 from negation_eval import negation_pairs
 from nli_files import LABELS, evaluate_sources, extra_evaluate_sources, extra_train_sources, train_sources
@@ -23,6 +23,9 @@ QUOTAS = dict(negation=4200, cohyponym=4000, antonym=1500, hypernym=2000, number
 # Restatement shapes (augment.generate_restatements), taught beside the contradiction sources in one run.
 RESTATEMENT_QUOTAS = dict(identity=1500, conjunct_part=3000, conjunct_added=2000, shorter_reversed=2500,
                           modifier_dropped=2000, modifier_added=1500, synonym=2500, state_antonym=2000)
+# A 'not' on one side that does not make a contradiction (augment.generate_negation_crossings).
+CROSSING_QUOTAS = dict(ruled_out=3000, left_open=2000, negated_clause_part=2000, negated_clause_added=1500,
+                       negation_respelled=1500)
 # Caps on the larger extra/ files: the templated curriculum probes and the monotonicity pairs would
 # otherwise outweigh the natural sentences.
 EXTRA_CAPS = dict(monotonicity=8000, **{"curriculum_" + t: 1500 for t in
@@ -185,6 +188,8 @@ def main():
     if args.extra:
         restatement_quotas = {k: (0 if k in args.drop else v) for k, v in RESTATEMENT_QUOTAS.items()}
         pairs += [g for g in generate_restatements(train, args.seed, restatement_quotas) if g[3] not in args.drop]
+        crossing_quotas = {k: (0 if k in args.drop else v) for k, v in CROSSING_QUOTAS.items()}
+        pairs += [g for g in generate_negation_crossings(train, args.seed, crossing_quotas) if g[3] not in args.drop]
     pairs = [x for x in pairs if (x[0], x[1]) not in held_keys]
     counts = collections.Counter(name for *_, name in pairs)
     note(event="data", counts=counts, total=len(pairs), drop=args.drop, seed=args.seed)
