@@ -67,6 +67,17 @@ internal static class ReportText
             $"#{pair.First} -> #{pair.Second}: {Direction(pair.Forward)}; #{pair.Second} -> #{pair.First}: {Direction(pair.Backward)}");
     }
 
+    /// <summary>"3 of 3 trees agree", "2 of 4 trees agree (tied)"; empty when one tree was judged.</summary>
+    public static string Stability(SampleAgreement? stability) => stability is { } s
+        ? string.Create(Invariant, $"{s.Agreeing} of {s.Trees} trees agree") + (s.Tied ? " (tied)" : "")
+        : "";
+
+    /// <summary>"#1 -> #2 entailment 0.81 against #2 -> #1 contradiction 0.72 (dropped)".</summary>
+    public static string Conflict(LinkConflict conflict) => string.Create(Invariant,
+        $"#{conflict.Entailment.From} -> #{conflict.Entailment.To} entailment {Probability(conflict.Entailment.Probability)} against ")
+        + string.Create(Invariant, $"#{conflict.Contradiction.From} -> #{conflict.Contradiction.To} contradiction {Probability(conflict.Contradiction.Probability)}")
+        + (conflict.Dropped ? " (both dropped)" : " (both kept)");
+
     /// <summary>Why a claim fails a JUnit test case or stands out in Markdown, given the chosen conditions.</summary>
     public static string Headline(ClaimReport claim) => claim.Status switch
     {
@@ -74,6 +85,7 @@ internal static class ReportText
         _ => string.Create(Invariant,
             $"{ReportWords.Of(claim.Status)}: answer {ReportWords.Answer(claim.Answer)}, direct answer {ReportWords.Answer(claim.DirectAnswer)}")
             + (claim.Gold is { } gold ? $", gold {ReportWords.Answer(gold)}" : "")
-            + $", margin {Weight(claim.Margin)}",
+            + $", margin {Weight(claim.Margin)} (normalised {Weight(claim.NormalisedMargin)})"
+            + (claim.Stability is { } stability ? ", " + Stability(stability) : ""),
     };
 }

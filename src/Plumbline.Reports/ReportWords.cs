@@ -71,6 +71,41 @@ internal static class ReportWords
         null => "none",
     };
 
+    public static string Of(BeliefForm form) => form switch
+    {
+        BeliefForm.Ratio => "ratio",
+        BeliefForm.NormalisedDifference => "normalised_difference",
+        _ => throw Unknown(form),
+    };
+
+    public static string Of(ConflictRule rule) => rule switch
+    {
+        ConflictRule.Keep => "keep",
+        ConflictRule.Drop => "drop",
+        _ => throw Unknown(rule),
+    };
+
+    public static string Of(ContradictionCount count) => count switch
+    {
+        ContradictionCount.EachDirection => "each_direction",
+        ContradictionCount.OncePerPair => "once_per_pair",
+        _ => throw Unknown(count),
+    };
+
+    public static string Of(NliText text) => text switch
+    {
+        NliText.Statement => "statement",
+        NliText.NegationWhenFalse => "negation_when_false",
+        _ => throw Unknown(text),
+    };
+
+    public static string Of(DirectAnswerRule rule) => rule switch
+    {
+        DirectAnswerRule.Plain => "plain",
+        DirectAnswerRule.Paired => "paired",
+        _ => throw Unknown(rule),
+    };
+
     public static string Of(NegationMode mode) => mode switch
     {
         NegationMode.Model => "model",

@@ -1,6 +1,9 @@
 using System.Collections.Frozen;
 using System.Diagnostics.CodeAnalysis;
+using Plumbline.Reports.Html;
 using Plumbline.Reports.Json;
+using Plumbline.Reports.Junit;
+using Plumbline.Reports.Markdown;
 using Plumbline.Reports.Text;
 
 namespace Plumbline.Reports;
@@ -25,7 +28,10 @@ public sealed class ReportWriterRegistry
     public static ReportWriterRegistry Default { get; } = Empty
         .With(TextReportWriter.FormatName, options => new TextReportWriter(options.Colour))
         .With(JsonReportWriter.FormatName, _ => new JsonReportWriter())
-        .With(JsonLinesReportWriter.FormatName, _ => new JsonLinesReportWriter());
+        .With(JsonLinesReportWriter.FormatName, _ => new JsonLinesReportWriter())
+        .With(MarkdownReportWriter.FormatName, _ => new MarkdownReportWriter())
+        .With(JunitReportWriter.FormatName, options => new JunitReportWriter(options.JunitFailures))
+        .With(HtmlReportWriter.FormatName, _ => new HtmlReportWriter());
 
     /// <summary>Known format names, sorted.</summary>
     public IReadOnlyList<string> Formats { get; }

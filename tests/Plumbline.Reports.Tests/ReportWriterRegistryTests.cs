@@ -17,7 +17,7 @@ public sealed class ReportWriterRegistryTests
 
     [Fact]
     public void Default_Formats_EveryShippedFormat() =>
-        Assert.Equal(["json", "jsonl", "text"], ReportWriterRegistry.Default.Formats);
+        Assert.Equal(["html", "json", "jsonl", "junit", "md", "text"], ReportWriterRegistry.Default.Formats);
 
     [Theory]
     [MemberData(nameof(DefaultFormats))]
@@ -46,7 +46,7 @@ public sealed class ReportWriterRegistryTests
         var error = Assert.Throws<ArgumentException>(() => ReportWriterRegistry.Default.Create("yaml"));
 
         Assert.Contains("'yaml'", error.Message, StringComparison.Ordinal);
-        Assert.Contains("json, jsonl, text", error.Message, StringComparison.Ordinal);
+        Assert.Contains("html, json, jsonl, junit, md, text", error.Message, StringComparison.Ordinal);
     }
 
     [Fact]
@@ -69,9 +69,9 @@ public sealed class ReportWriterRegistryTests
     {
         var extended = ReportWriterRegistry.Default.With("Fixed", _ => new FixedWriter("fixed"));
 
-        Assert.Equal(["fixed", "json", "jsonl", "text"], extended.Formats);
+        Assert.Equal(["fixed", "html", "json", "jsonl", "junit", "md", "text"], extended.Formats);
         Assert.Equal("fixed", extended.Create("fixed").Format);
-        Assert.Equal(["json", "jsonl", "text"], ReportWriterRegistry.Default.Formats);
+        Assert.Equal(["html", "json", "jsonl", "junit", "md", "text"], ReportWriterRegistry.Default.Formats);
     }
 
     [Fact]
@@ -79,7 +79,7 @@ public sealed class ReportWriterRegistryTests
     {
         var replaced = ReportWriterRegistry.Default.With("json", _ => new FixedWriter("json-double"));
 
-        Assert.Equal(["json", "jsonl", "text"], replaced.Formats);
+        Assert.Equal(["html", "json", "jsonl", "junit", "md", "text"], replaced.Formats);
         Assert.Equal("json-double", replaced.Create("json").Format);
     }
 }

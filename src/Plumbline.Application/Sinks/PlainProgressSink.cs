@@ -50,7 +50,7 @@ public sealed class PlainProgressSink(TextWriter error, TimeProvider time, TimeS
 
     internal static string Duration(TimeSpan span) => span.TotalMinutes >= 90
         ? string.Create(CultureInfo.InvariantCulture, $"{span.TotalHours:0.0} h")
-        : span.TotalSeconds >= 90
+        : span.TotalSeconds >= 120
             ? string.Create(CultureInfo.InvariantCulture, $"{Math.Round(span.TotalMinutes):0} min")
             : string.Create(CultureInfo.InvariantCulture, $"{Math.Max(1, Math.Round(span.TotalSeconds)):0} s");
 }

@@ -102,6 +102,19 @@ internal static class ReportJson
         json.WriteString("prompt_version", settings.PromptVersion);
         json.WriteString("solver", settings.Solver);
         json.WriteString("pairs_listed", ReportWords.Of(header.Listing));
+        json.WriteStartObject("rules");
+        json.WriteNumber("integrity_gap", ReportNumbers.Round(settings.IntegrityGap, "settings.rules.integrity_gap"));
+        json.WriteString("belief_form", ReportWords.Of(settings.BeliefForm));
+        json.WriteNumber("link_floor", ReportNumbers.Round(settings.LinkFloor, "settings.rules.link_floor"));
+        json.WriteString("conflicts", ReportWords.Of(settings.Conflicts));
+        json.WriteString("contradictions", ReportWords.Of(settings.Contradictions));
+        json.WriteString("nli_text", ReportWords.Of(settings.NliText));
+        json.WriteBoolean("discard_cut_off", settings.DiscardCutOff);
+        json.WriteBoolean("expand_integral_claim", settings.ExpandIntegralClaim);
+        json.WriteBoolean("claim_belief", settings.ClaimBelief);
+        json.WriteString("direct_answer", ReportWords.Of(settings.DirectAnswer));
+        json.WriteNumber("samples", settings.Samples);
+        json.WriteEndObject();
         json.WriteEndObject();
     }
 
@@ -117,10 +130,17 @@ internal static class ReportJson
         json.WriteNumber("labelled", figures.Labelled);
         WriteAccuracy(json, "direct_accuracy", figures.DirectAccuracy);
         WriteAccuracy(json, "coherent_accuracy", figures.CoherentAccuracy);
+        WriteAccuracy(json, "paired_direct_accuracy", figures.PairedDirectAccuracy);
         json.WriteNumber("overturn_rate", ReportNumbers.Round(figures.OverturnRate, "figures.overturn_rate"));
         json.WriteNumber("contested_rate", ReportNumbers.Round(figures.ContestedRate, "figures.contested_rate"));
         json.WriteNumber("two_sided_rate", ReportNumbers.Round(figures.TwoSidedRate, "figures.two_sided_rate"));
         json.WriteNumber("mean_margin", ReportNumbers.Round(figures.MeanMargin, "figures.mean_margin"));
+        json.WriteNumber("mean_normalised_margin", ReportNumbers.Round(figures.MeanNormalisedMargin, "figures.mean_normalised_margin"));
+        WriteNullable(json, "mean_stability", figures.MeanStability, "figures.mean_stability");
+        json.WriteNumber("stability_ties", figures.StabilityTies);
+        json.WriteNumber("conflicting_pairs", figures.ConflictingPairs);
+        json.WriteNumber("cut_off_discarded", figures.CutOffDiscarded);
+        json.WriteNumber("estimated_claims", figures.EstimatedClaims);
         json.WriteStartObject("links");
         json.WriteNumber("entailment", figures.EntailmentLinks);
         json.WriteNumber("contradiction", figures.ContradictionLinks);
@@ -147,8 +167,24 @@ internal static class ReportJson
         json.WriteEndArray();
         WriteNullable(json, "answer", claim.Answer);
         WriteNullable(json, "direct_answer", claim.DirectAnswer);
+        WriteNullable(json, "paired_direct_answer", claim.PairedDirectAnswer);
         json.WriteString("status", ReportWords.Of(claim.Status));
         json.WriteNumber("margin", ReportNumbers.Round(claim.Margin, $"{where}.margin"));
+        json.WriteNumber("normalised_margin", ReportNumbers.Round(claim.NormalisedMargin, $"{where}.normalised_margin"));
+        if (claim.Stability is { } stability)
+        {
+            json.WriteStartObject("stability");
+            json.WriteNumber("trees", stability.Trees);
+            json.WriteNumber("agreeing", stability.Agreeing);
+            json.WriteBoolean("tied", stability.Tied);
+            json.WriteNumber("share", ReportNumbers.Round(stability.Share, $"{where}.stability.share"));
+            json.WriteEndObject();
+        }
+        else
+        {
+            json.WriteNull("stability");
+        }
+
         json.WriteBoolean("two_sided", claim.TwoSided);
         json.WriteBoolean("probabilities_estimated", claim.ProbabilitiesEstimated);
 
@@ -157,6 +193,7 @@ internal static class ReportJson
         json.WriteNumber("kept", claim.Statements.Count(s => s.Kept));
         json.WriteNumber("pruned", claim.PrunedCount);
         json.WriteNumber("integral", claim.IntegralCount);
+        json.WriteNumber("cut_off_discarded", claim.CutOffDiscarded);
         json.WriteEndObject();
 
         json.WriteStartArray("statements");
@@ -186,6 +223,23 @@ internal static class ReportJson
             WriteScores(json, pair.Forward, $"{where}.pairs.forward");
             json.WritePropertyName("backward");
             WriteScores(json, pair.Backward, $"{where}.pairs.backward");
+            json.WriteEndObject();
+        }
+
+        json.WriteEndArray();
+        json.WriteStartArray("conflicts");
+        foreach (var conflict in claim.Conflicts)
+        {
+            json.WriteStartObject();
+            json.WritePropertyName("entailment");
+            json.WriteStartObject();
+            WriteLinkBody(json, conflict.Entailment, where);
+            json.WriteEndObject();
+            json.WritePropertyName("contradiction");
+            json.WriteStartObject();
+            WriteLinkBody(json, conflict.Contradiction, where);
+            json.WriteEndObject();
+            json.WriteBoolean("dropped", conflict.Dropped);
             json.WriteEndObject();
         }
 
@@ -251,11 +305,18 @@ internal static class ReportJson
     private static void WriteLink(Utf8JsonWriter json, Link link, string where)
     {
         json.WriteStartObject();
+        WriteLinkBody(json, link, where);
+        json.WriteEndObject();
+    }
+
+    private static void WriteLinkBody(Utf8JsonWriter json, Link link, string where)
+    {
         json.WriteNumber("from", link.From);
         json.WriteNumber("to", link.To);
         json.WriteString("kind", ReportWords.Of(link.Kind));
         json.WriteNumber("probability", ReportNumbers.Round(link.Probability, $"{where}.links.probability"));
-        json.WriteEndObject();
+        json.WriteBoolean("from_negation", link.FromNegation);
+        json.WriteBoolean("to_negation", link.ToNegation);
     }
 
     private static void WriteScores(Utf8JsonWriter json, EntailmentScores scores, string where)

@@ -53,6 +53,21 @@ public sealed record ClaimReport(
     VerdictTimings Timings,
     string? Error)
 {
+    /// <summary>The direct answer comparing p(True | claim) with p(True | negated claim); null when unknown.</summary>
+    public bool? PairedDirectAnswer { get; init; }
+
+    /// <summary>The margin divided by the claim's total soft-clause weight, in [0, 1].</summary>
+    public double NormalisedMargin { get; init; }
+
+    /// <summary>Statement pairs the NLI model read as entailment one way and contradiction the other.</summary>
+    public IReadOnlyList<LinkConflict> Conflicts { get; init; } = [];
+
+    /// <summary>Explanations dropped because they did not end a sentence.</summary>
+    public int CutOffDiscarded { get; init; }
+
+    /// <summary>Agreement of independently sampled trees; null when one tree was judged.</summary>
+    public SampleAgreement? Stability { get; init; }
+
     /// <summary>The answer disagrees with the gold label (false when either is missing).</summary>
     public bool DisagreesWithGold => Gold is { } gold && Answer is { } answer && gold != answer;
 

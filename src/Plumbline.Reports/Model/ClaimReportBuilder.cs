@@ -44,7 +44,14 @@ public static class ClaimReportBuilder
             verdict.ModelCalls,
             verdict.Tokens,
             verdict.Timings,
-            verdict.Error);
+            verdict.Error)
+        {
+            PairedDirectAnswer = verdict.PairedDirectAnswer,
+            NormalisedMargin = verdict.NormalisedMargin,
+            Conflicts = verdict.Conflicts,
+            CutOffDiscarded = verdict.CutOffDiscarded,
+            Stability = verdict.Stability,
+        };
     }
 
     /// <summary>

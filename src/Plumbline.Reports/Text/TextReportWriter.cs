@@ -60,6 +60,11 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         block.Append(style.Strong(claim.Id)).Append("  ").Append(ReportText.OneLine(claim.Text)).Append('\n');
         block.Append("  answer ").Append(style.Strong(ReportWords.Answer(claim.Answer)))
             .Append(" | direct answer ").Append(ReportWords.Answer(claim.DirectAnswer));
+        if (claim.PairedDirectAnswer is { } paired && paired != claim.DirectAnswer)
+        {
+            block.Append(" (paired ").Append(ReportWords.Answer(paired)).Append(')');
+        }
+
         if (claim.Gold is { } gold)
         {
             block.Append(" | gold ").Append(ReportWords.Answer(gold));
@@ -68,7 +73,13 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         block.Append(" | ").Append(style.Status(claim.Status));
         if (claim.Status != ClaimStatus.Failed)
         {
-            block.Append(" | margin ").Append(ReportText.Weight(claim.Margin));
+            block.Append(" | margin ").Append(ReportText.Weight(claim.Margin))
+                .Append(" (normalised ").Append(ReportText.Weight(claim.NormalisedMargin)).Append(')');
+            if (claim.Stability is { } stability)
+            {
+                block.Append(" | ").Append(ReportText.Stability(stability));
+            }
+
             if (claim.TwoSided)
             {
                 block.Append(" | two-sided");
@@ -84,6 +95,7 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         if (claim.Statements.Count > 0)
         {
             block.Append(Invariant, $"  tree: {claim.Statements.Count(s => s.Kept)} kept, {claim.PrunedCount} pruned, {claim.IntegralCount} integral")
+                .Append(claim.CutOffDiscarded > 0 ? string.Create(Invariant, $", {claim.CutOffDiscarded} cut off") : "")
                 .Append(" (value in the optimum T/F, - pruned; b = belief)\n");
             Outline(block, claim, claim.Statements[0], "    ", "    ");
         }
@@ -99,6 +111,15 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
             if (claim.Deciding.Count > DecidingShown)
             {
                 block.Append(Invariant, $"    and {claim.Deciding.Count - DecidingShown} lighter clause(s)\n");
+            }
+        }
+
+        if (claim.Conflicts.Count > 0)
+        {
+            block.Append("  conflicting readings\n");
+            foreach (var conflict in claim.Conflicts)
+            {
+                block.Append("    ").Append(ReportText.Conflict(conflict)).Append('\n');
             }
         }
 
@@ -162,6 +183,10 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         {
             block.Append("    direct accuracy   ").Append(ReportText.Accuracy(direct)).Append('\n');
             block.Append("    coherent accuracy ").Append(ReportText.Accuracy(coherent)).Append('\n');
+            if (figures.PairedDirectAccuracy is { } paired)
+            {
+                block.Append("    paired direct accuracy ").Append(ReportText.Accuracy(paired)).Append('\n');
+            }
         }
         else
         {
@@ -169,12 +194,22 @@ internal sealed class TextReportWriter(bool colour) : IReportWriter
         }
 
         block.Append(Invariant, $"    overturn rate {ReportText.Percent(figures.OverturnRate)} | contested rate {ReportText.Percent(figures.ContestedRate)}")
-            .Append(Invariant, $" | two-sided rate {ReportText.Percent(figures.TwoSidedRate)} | mean margin {ReportText.Weight(figures.MeanMargin)}\n");
+            .Append(Invariant, $" | two-sided rate {ReportText.Percent(figures.TwoSidedRate)} | mean margin {ReportText.Weight(figures.MeanMargin)}")
+            .Append(Invariant, $" (normalised {ReportText.Weight(figures.MeanNormalisedMargin)})\n");
+        if (figures.MeanStability is { } stability)
+        {
+            block.Append(Invariant, $"    mean stability {ReportText.Percent(stability)} of sampled trees give the majority answer | {figures.StabilityTies} tied\n");
+        }
         block.Append(Invariant, $"    links found {figures.EntailmentLinks + figures.ContradictionLinks} ")
-            .Append(Invariant, $"({figures.EntailmentLinks} entailment, {figures.ContradictionLinks} contradiction)\n");
+            .Append(Invariant, $"({figures.EntailmentLinks} entailment, {figures.ContradictionLinks} contradiction)")
+            .Append(Invariant, $" | conflicting pairs {figures.ConflictingPairs} | cut-off explanations {figures.CutOffDiscarded}\n");
         block.Append(Invariant, $"    model calls {figures.ModelCalls} | tokens {figures.Tokens.Total} ")
             .Append(Invariant, $"({figures.Tokens.PromptTokens} prompt, {figures.Tokens.CompletionTokens} completion)")
             .Append(Invariant, $" | wall time {ReportText.Duration(figures.WallTime)}\n");
+        if (figures.EstimatedClaims > 0)
+        {
+            block.Append(Invariant, $"    beliefs estimated by sampling for {ReportText.Count(figures.EstimatedClaims, "claim")}\n");
+        }
         return block;
     }
 

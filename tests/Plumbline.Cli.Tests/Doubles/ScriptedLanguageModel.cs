@@ -6,9 +6,9 @@ namespace Plumbline.Cli.Tests.Doubles;
 /// A model that answers by rule, used only to make recording files for the tests: it writes explanations
 /// "Reason k for/against S", negations "Not so: S", and believes explanations for True (0.8), doubts
 /// explanations for False (0.3), and each claim as scripted. Every explanation passes the integrity test,
-/// so trees stop at depth 1 and stay small.
+/// so trees stop at depth 1 and stay small. With <c>anyOtherClaim</c> every claim not scripted gets that belief.
 /// </summary>
-internal sealed class ScriptedLanguageModel(IReadOnlyDictionary<string, double> claimBeliefs) : ILanguageModel
+internal sealed class ScriptedLanguageModel(IReadOnlyDictionary<string, double> claimBeliefs, double? anyOtherClaim = null) : ILanguageModel
 {
     private const string NegationMark = "Not so: ";
 
@@ -33,5 +33,5 @@ internal sealed class ScriptedLanguageModel(IReadOnlyDictionary<string, double> 
         statement.StartsWith(NegationMark, StringComparison.Ordinal) ? 1 - PTrue(statement[NegationMark.Length..])
         : statement.StartsWith("Reason ", StringComparison.Ordinal) ? (statement.Contains(" for ", StringComparison.Ordinal) ? 0.8 : 0.3)
         : claimBeliefs.TryGetValue(statement, out var p) ? p
-        : null;
+        : anyOtherClaim;
 }

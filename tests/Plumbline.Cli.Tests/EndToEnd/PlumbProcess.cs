@@ -9,10 +9,10 @@ internal sealed class PlumbProcess : IDisposable
     private readonly Task<string> output;
     private readonly Task<string> error;
 
-    private PlumbProcess(Process process)
+    private PlumbProcess(Process process, bool readOutput = true)
     {
         this.process = process;
-        output = process.StandardOutput.ReadToEndAsync();
+        output = readOutput ? process.StandardOutput.ReadToEndAsync() : Task.FromResult(string.Empty);
         error = process.StandardError.ReadToEndAsync();
     }
 
@@ -21,12 +21,22 @@ internal sealed class PlumbProcess : IDisposable
 
     public int Id => process.Id;
 
-    public static PlumbProcess Start(string workingDirectory, params string[] args) => Start(workingDirectory, null, args);
+    public static string Dotnet => Environment.GetEnvironmentVariable("DOTNET_HOST_PATH") ?? "dotnet";
+
+    public static PlumbProcess Start(string workingDirectory, params string[] args) => Start(workingDirectory, [], readOutput: true, null, args);
 
     /// <summary>Starts plumb with extra environment variables (added to, or replacing, the test process's own).</summary>
-    public static PlumbProcess Start(string workingDirectory, IReadOnlyDictionary<string, string>? environment, params string[] args)
+    public static PlumbProcess Start(string workingDirectory, IReadOnlyDictionary<string, string>? environment, params string[] args) =>
+        Start(workingDirectory, [], readOutput: true, environment, args);
+
+    public static PlumbProcess Start(string workingDirectory, IReadOnlyList<string> launcher, bool readOutput, params string[] args) =>
+        Start(workingDirectory, launcher, readOutput, null, args);
+
+    /// <summary>Starts plumb behind <paramref name="launcher"/> (a command and its arguments that run the rest, or none);
+    /// with <paramref name="readOutput"/> false the test reads standard output itself.</summary>
+    public static PlumbProcess Start(string workingDirectory, IReadOnlyList<string> launcher, bool readOutput, IReadOnlyDictionary<string, string>? environment, params string[] args)
     {
-        var start = new ProcessStartInfo(Environment.GetEnvironmentVariable("DOTNET_HOST_PATH") ?? "dotnet")
+        var start = new ProcessStartInfo(launcher.Count > 0 ? launcher[0] : Dotnet)
         {
             WorkingDirectory = workingDirectory,
             RedirectStandardOutput = true,
@@ -39,13 +49,18 @@ internal sealed class PlumbProcess : IDisposable
             start.Environment[name] = value;
         }
 
+        foreach (var part in launcher.Skip(1).Append(Dotnet).Skip(launcher.Count > 0 ? 0 : 1))
+        {
+            start.ArgumentList.Add(part);
+        }
+
         start.ArgumentList.Add(PlumbDll);
         foreach (var arg in args)
         {
             start.ArgumentList.Add(arg);
         }
 
-        return new PlumbProcess(Process.Start(start) ?? throw new InvalidOperationException("dotnet did not start"));
+        return new PlumbProcess(Process.Start(start) ?? throw new InvalidOperationException("dotnet did not start"), readOutput);
     }
 
     public static async Task<PlumbResult> RunAsync(string workingDirectory, params string[] args)
@@ -69,6 +84,12 @@ internal sealed class PlumbProcess : IDisposable
 
         return new PlumbResult(process.ExitCode, await output, await error);
     }
+
+    /// <summary>The next line of standard output (when the test reads it itself).</summary>
+    public Task<string?> ReadLineAsync() => process.StandardOutput.ReadLineAsync();
+
+    /// <summary>Closes the read end of standard output, as a program at the end of a pipe does when it has read enough.</summary>
+    public void CloseOutput() => process.StandardOutput.Dispose();
 
     /// <summary>Sends SIGINT, as Ctrl+C in a terminal does.</summary>
     public async Task InterruptAsync()

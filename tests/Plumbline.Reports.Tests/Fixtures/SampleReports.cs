@@ -72,6 +72,11 @@ public static class SampleReports
             new PairScore(2, 1, new EntailmentScores(0.15, 0.7, 0.15)),
         ],
         Values = new Dictionary<int, bool> { [0] = true, [1] = true, [2] = false },
+        // Soft clauses weigh 4.0 in all (say), so the normalised margin is 1.23456 / 4.0.
+        NormalisedMargin = 0.30864,
+        PairedDirectAnswer = true,
+        Stability = new SampleAgreement(Trees: 3, Agreeing: 2, Tied: false),
+        CutOffDiscarded = 1,
         FalsifiedWithOtherAnswer =
         [
             new FalsifiedClause(2, ClauseOrigin.Entails(1, 0), [-2, 1], 1.0),
@@ -105,14 +110,18 @@ public static class SampleReports
     {
         Pairs =
         [
-            new PairScore(0, 1, new EntailmentScores(0.3, 0.6, 0.1)),
+            new PairScore(0, 1, new EntailmentScores(0.61, 0.3, 0.09)),
             new PairScore(0, 2, new EntailmentScores(0.05, 0.1, 0.85)),
-            new PairScore(1, 0, new EntailmentScores(0.3, 0.6, 0.1)),
+            new PairScore(1, 0, new EntailmentScores(0.1, 0.33, 0.57)),
             new PairScore(1, 2, new EntailmentScores(0.02, 0.05, 0.93)),
             new PairScore(2, 0, new EntailmentScores(0.02, 0.03, 0.95)),
             new PairScore(2, 1, new EntailmentScores(0.1, 0.5, 0.4)),
         ],
         Values = new Dictionary<int, bool> { [0] = false, [1] = false, [2] = true },
+        NormalisedMargin = 0.125,
+        PairedDirectAnswer = false,
+        // #0 -> #1 reads entailment, #1 -> #0 contradiction: a conflict, dropped, so the pair has no link.
+        Conflicts = [new LinkConflict(new Link(0, 1, EntailmentKind.Entailment, 0.61), new Link(1, 0, EntailmentKind.Contradiction, 0.57), Dropped: true)],
     };
 
     public const string FailureReason = "claim c3: building the explanation tree failed: backend answered HTTP 503";

@@ -1,7 +1,9 @@
 using System.Text.Json;
+using Plumbline.Core.Coherence;
+using Plumbline.Core.Entailment;
 using Plumbline.Core.Runs;
-using Plumbline.Reports.Model;
 using Plumbline.Reports.Json;
+using Plumbline.Reports.Model;
 using Plumbline.Reports.Tests.Fixtures;
 using Plumbline.Reports.Tests.Schema;
 
@@ -56,11 +58,25 @@ public sealed class JsonReportWriterTests
 
         string[] expected =
         [
-            "id", "claim", "gold", "tags", "answer", "direct_answer", "status", "margin", "two_sided",
-            "probabilities_estimated", "counts", "statements", "links", "pairs", "falsified_clauses", "deciding_clauses", "solve_status",
+            "id", "claim", "gold", "tags", "answer", "direct_answer", "paired_direct_answer", "status", "margin", "normalised_margin", "stability", "two_sided",
+            "probabilities_estimated", "counts", "statements", "links", "pairs", "conflicts", "falsified_clauses", "deciding_clauses", "solve_status",
             "objective_cost", "model_calls", "tokens", "timings_ms", "error",
         ];
         Assert.Equal(expected, Claim(document, 0).EnumerateObject().Select(p => p.Name));
+    }
+
+    [Fact]
+    public async Task WriteAsync_LinkScoredOnANegation_FlagsTheNegatedSide()
+    {
+        var verdict = SampleReports.Settled with { Links = [new Link(2, 0, EntailmentKind.Contradiction, 0.95, FromNegation: true)] };
+        var json = await ReportOutput.TextAsync(new JsonReportWriter(), SampleReports.Report([verdict], SampleReports.Started.AddSeconds(1)));
+        using var document = JsonDocument.Parse(json);
+
+        var link = Claim(document, 0).GetProperty("links")[0];
+        Assert.True(link.GetProperty("from_negation").GetBoolean());
+        Assert.False(link.GetProperty("to_negation").GetBoolean());
+        var results = ReportSchemaFile.Evaluate(json);
+        Assert.True(results.IsValid, ReportSchemaFile.Describe(results));
     }
 
     [Fact]
@@ -304,6 +320,28 @@ public sealed class JsonReportWriterTests
         Assert.Equal(["c4", "c5"], written.GetProperty("not_judged").EnumerateArray().Select(e => e.GetString()));
         Assert.Equal("input", written.GetProperty("problems")[0].GetProperty("source").GetString());
         Assert.True(ReportSchemaFile.Evaluate(json).IsValid, ReportSchemaFile.Describe(ReportSchemaFile.Evaluate(json)));
+    }
+
+    [Fact]
+    public async Task WriteAsync_MethodFields_StabilityNormalisedMarginConflictsAndCutOffs()
+    {
+        using var document = await WriteAsync(SampleReports.Mixed());
+        var (settled, overturned, figures) = (Claim(document, 0), Claim(document, 1), document.RootElement.GetProperty("figures"));
+
+        Assert.Equal("0.3086", settled.GetProperty("normalised_margin").GetRawText());
+        Assert.Equal((3, 2, false), (settled.GetProperty("stability").GetProperty("trees").GetInt32(),
+            settled.GetProperty("stability").GetProperty("agreeing").GetInt32(), settled.GetProperty("stability").GetProperty("tied").GetBoolean()));
+        Assert.Equal(JsonValueKind.Null, overturned.GetProperty("stability").ValueKind);
+        Assert.False(overturned.GetProperty("paired_direct_answer").GetBoolean());
+        var conflict = Assert.Single(overturned.GetProperty("conflicts").EnumerateArray());
+        Assert.True(conflict.GetProperty("dropped").GetBoolean());
+        Assert.Equal((1, 0), (conflict.GetProperty("contradiction").GetProperty("from").GetInt32(), conflict.GetProperty("contradiction").GetProperty("to").GetInt32()));
+        Assert.Equal(1, settled.GetProperty("counts").GetProperty("cut_off_discarded").GetInt32());
+        // (0.30864 + 0.125) / 2 = 0.21682; stability 2 / 3 on the one claim that sampled trees.
+        Assert.Equal("0.2168", figures.GetProperty("mean_normalised_margin").GetRawText());
+        Assert.Equal("0.6667", figures.GetProperty("mean_stability").GetRawText());
+        Assert.Equal((1, 1, 1), (figures.GetProperty("conflicting_pairs").GetInt32(), figures.GetProperty("cut_off_discarded").GetInt32(),
+            figures.GetProperty("estimated_claims").GetInt32()));
     }
 
     [Fact]

@@ -29,8 +29,8 @@ public sealed class TextReportWriterTests
         var at = At(lines, "c1  Water boils at 100 degrees Celsius at sea level.");
         Assert.Equal(
             [
-                "  answer true | direct answer true | gold true | settled | margin 1.2346 | two-sided",
-                "  tree: 3 kept, 1 pruned, 3 integral (value in the optimum T/F, - pruned; b = belief)",
+                "  answer true | direct answer true | gold true | settled | margin 1.2346 (normalised 0.3086) | 2 of 3 trees agree | two-sided",
+                "  tree: 3 kept, 1 pruned, 3 integral, 1 cut off (value in the optimum T/F, - pruned; b = belief)",
                 "    #0 T b0.93 Water boils at 100 degrees Celsius at sea level.",
                 "    \u251c\u2500 #1 T b0.97 [for true] At sea level the air pressure is one atmosphere.",
                 "    \u251c\u2500 #2 F b0.13 [for false] Water boils at 90 degrees Celsius at sea level.",
@@ -49,7 +49,9 @@ public sealed class TextReportWriterTests
         var lines = await LinesAsync();
 
         var at = At(lines, "c2  Glass is a liquid.");
-        Assert.Equal("  answer false | direct answer true | gold false | overturned | margin 0.5", lines[at + 1]);
+        Assert.Equal("  answer false | direct answer true (paired false) | gold false | overturned | margin 0.5 (normalised 0.125)", lines[at + 1]);
+        var conflicts = At(lines, "  conflicting readings");
+        Assert.Equal("    #0 -> #1 entailment 0.61 against #1 -> #0 contradiction 0.57 (both dropped)", lines[conflicts + 1]);
         // Both contradictions of the claim, each pair once with both directions: {0,2} and {1,2}.
         Assert.Contains("    #0 -> #2: contradiction 0.85; #2 -> #0: contradiction 0.95", lines);
         Assert.Contains("    #1 -> #2: contradiction 0.93; #2 -> #1: neutral 0.50", lines);
@@ -100,9 +102,13 @@ public sealed class TextReportWriterTests
         Assert.Contains("    3 claims: 2 judged (1 settled, 1 overturned, 0 contested), 1 failed", lines);
         Assert.Contains("    direct accuracy   50.0% (1 of 2; Wilson 95% interval 9.5% to 90.5%)", lines);
         Assert.Contains("    coherent accuracy 100.0% (2 of 2; Wilson 95% interval 34.2% to 100.0%)", lines);
-        Assert.Contains("    overturn rate 50.0% | contested rate 0.0% | two-sided rate 50.0% | mean margin 0.8673", lines);
-        Assert.Contains("    links found 4 (1 entailment, 3 contradiction)", lines);
+        Assert.Contains("    paired direct accuracy 100.0% (2 of 2; Wilson 95% interval 34.2% to 100.0%)", lines);
+        // Mean normalised margin (0.30864 + 0.125) / 2; stability measured on the settled claim only, 2 of 3.
+        Assert.Contains("    overturn rate 50.0% | contested rate 0.0% | two-sided rate 50.0% | mean margin 0.8673 (normalised 0.2168)", lines);
+        Assert.Contains("    mean stability 66.7% of sampled trees give the majority answer | 0 tied", lines);
+        Assert.Contains("    links found 4 (1 entailment, 3 contradiction) | conflicting pairs 1 | cut-off explanations 1", lines);
         Assert.Contains("    model calls 27 | tokens 2010 (1640 prompt, 370 completion) | wall time 4.5 s", lines);
+        Assert.Contains("    beliefs estimated by sampling for 1 claim", lines);
     }
 
     [Fact]
