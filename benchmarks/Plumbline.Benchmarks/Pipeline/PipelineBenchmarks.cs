@@ -60,6 +60,12 @@ internal static class PipelineBenchmarks
         return 0;
     }
 
+    /// <summary>
+    /// The default settings, but keeping explanations without a final full stop: the generated full-size trees write
+    /// "statement | for k", which the default rule would discard as cut off, leaving a tree of one statement.
+    /// </summary>
+    private static readonly CoherenceOptions FullTrees = CoherenceOptions.Default with { DiscardCutOff = false };
+
     public static async Task<int> ThroughputAsync(string[] args, TextWriter output, TextWriter error)
     {
         var count = args is ["--claims", var n] ? int.Parse(n, CultureInfo.InvariantCulture) : 24;
@@ -67,10 +73,10 @@ internal static class PipelineBenchmarks
         using var folder = new Scratch();
         var claims = PipelineRun.Claims(count);
         var recording = Path.Combine(folder.Path, "recording.jsonl");
-        await PipelineRun.RecordAsync(recording, new FullTreeModel(), claims, CoherenceOptions.Default);
+        await PipelineRun.RecordAsync(recording, new FullTreeModel(), claims, FullTrees);
 
         var watch = Stopwatch.StartNew();
-        var outcome = await PipelineRun.JudgeAsync(recording, claims, CoherenceOptions.Default, folder.Path, inFlight);
+        var outcome = await PipelineRun.JudgeAsync(recording, claims, FullTrees, folder.Path, inFlight);
         var wall = watch.Elapsed;
 
         // Per-claim timings from the JSON report: tree (model calls), NLI scoring, solving.
