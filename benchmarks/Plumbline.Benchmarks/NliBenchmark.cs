@@ -44,7 +44,7 @@ internal static class NliBenchmark
             }
         }
 
-        directory ??= DefaultModelDirectory();
+        directory ??= RepositoryPaths.ShippedNliModel();
         var pairs = MakePairs(pairCount, new Random(17));
 
         // Cold start first, while nothing is loaded or compiled yet in this process.
@@ -137,19 +137,6 @@ internal static class NliBenchmark
         return Enumerable.Range(0, count)
             .Select(_ => new SentencePair(Sentence(random.Next(19, 24)), Sentence(random.Next(17, 22))))
             .ToArray();
-    }
-
-    private static string DefaultModelDirectory()
-    {
-        for (var folder = new DirectoryInfo(Environment.CurrentDirectory); folder is not null; folder = folder.Parent)
-        {
-            if (File.Exists(Path.Combine(folder.FullName, "Plumbline.slnx")))
-            {
-                return Path.Combine(folder.FullName, "models", "nli-minilm-int8");
-            }
-        }
-
-        return Path.Combine("models", "nli-minilm-int8");
     }
 
     private static string Met(bool met) => met ? "met" : "NOT met";

@@ -3,7 +3,6 @@ using System.CommandLine.Parsing;
 using Plumbline.Application;
 using Plumbline.Application.Input;
 using Plumbline.Application.Running;
-using Plumbline.Core.Coherence;
 using Plumbline.Reports;
 
 namespace Plumbline.Cli.Options;
@@ -11,27 +10,6 @@ namespace Plumbline.Cli.Options;
 /// <summary>The options <c>check</c> and <c>sweep</c> share: model source, NLI model, engine settings, reports and how the run behaves.</summary>
 internal sealed class JudgeOptions
 {
-    private readonly Option<string?> negation = new("--negation")
-    {
-        Description = "How statements are negated for the integrity test: model (the model rewrites them) or prefix (\"It is not true that ...\").",
-        HelpName = "MODE",
-        DefaultValueFactory = _ => "model",
-    };
-
-    private readonly Option<string?> weighting = new("--weighting")
-    {
-        Description = "Weight of a link's clause: unit (1) or nli (the NLI probability).",
-        HelpName = "MODE",
-        DefaultValueFactory = _ => "unit",
-    };
-
-    private readonly Option<double> contestedAt = new("--contested-at")
-    {
-        Description = "A margin at or below this makes a claim contested.",
-        HelpName = "MARGIN",
-        DefaultValueFactory = _ => CoherenceOptions.Default.ContestedThreshold,
-    };
-
     private readonly Option<string?> exportWcnf = new("--export-wcnf")
     {
         Description = "Write each judged claim's MAX-SAT problem to DIR/<claim id>.wcnf.",
@@ -79,6 +57,8 @@ internal sealed class JudgeOptions
         DefaultValueFactory = _ => "overturned,gold,failed",
     };
 
+    private readonly EngineOptions engine = new();
+
     private readonly IReadOnlyList<string> formats;
 
     public JudgeOptions(IReadOnlyList<string> reportFormats)
@@ -87,9 +67,6 @@ internal sealed class JudgeOptions
         NliModel = NliModelOption.Create();
         Model = new ModelOptions();
         Output = new OutputOptions(reportFormats);
-        negation.AcceptOnlyFromAmong(EngineChoices.Negations);
-        weighting.AcceptOnlyFromAmong(EngineChoices.Weightings);
-        contestedAt.CustomParser = result => NumberParsing.Parse(result, "--contested-at", "a margin (a number 0 or more)", v => v >= 0);
         inFlight.Validators.Add(result =>
         {
             if (result.GetValueOrDefault<int>() < 1)
@@ -109,9 +86,7 @@ internal sealed class JudgeOptions
     {
         Model.AddTo(command);
         command.Options.Add(NliModel);
-        command.Options.Add(negation);
-        command.Options.Add(weighting);
-        command.Options.Add(contestedAt);
+        engine.AddTo(command);
         command.Options.Add(exportWcnf);
         Output.AddTo(command);
         command.Options.Add(report);
@@ -130,12 +105,7 @@ internal sealed class JudgeOptions
     public JudgeSettings Read(ParseResult parse)
     {
         var source = Model.Read(parse);
-        var engine = CoherenceOptions.Default with
-        {
-            Negation = EngineChoices.NegationOf(parse.GetValue(negation)!),
-            Weighting = EngineChoices.WeightingOf(parse.GetValue(weighting)!),
-            ContestedThreshold = parse.GetValue(contestedAt),
-        };
+        var engine = this.engine.Read(parse);
         var export = parse.GetValue(exportWcnf);
         if (export is { Length: 0 })
         {

@@ -1,6 +1,5 @@
 using Plumbline.Application.Input;
 using Plumbline.Core.Coherence;
-using Plumbline.Core.Trees;
 
 namespace Plumbline.Cli.Options;
 
@@ -53,23 +52,3 @@ internal sealed record ReportTarget(string Format, string? Path);
 
 /// <summary>The report's format and where it goes; a null <paramref name="Path"/> is standard output (solve, nli).</summary>
 internal sealed record OutputSettings(string Format, string? Path);
-
-/// <summary>Command-line spellings of the engine's enumerations.</summary>
-internal static class EngineChoices
-{
-    public static readonly string[] Negations = ["model", "prefix"];
-
-    public static readonly string[] Weightings = ["unit", "nli"];
-
-    public static NegationMode NegationOf(string value) => value switch
-    {
-        "prefix" => NegationMode.Prefix,
-        _ => NegationMode.Model,
-    };
-
-    public static ClauseWeighting WeightingOf(string value) => value switch
-    {
-        "nli" => ClauseWeighting.NliProbability,
-        _ => ClauseWeighting.Unit,
-    };
-}

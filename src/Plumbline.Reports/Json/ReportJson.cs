@@ -315,6 +315,8 @@ internal static class ReportJson
         json.WriteNumber("to", link.To);
         json.WriteString("kind", ReportWords.Of(link.Kind));
         json.WriteNumber("probability", ReportNumbers.Round(link.Probability, $"{where}.links.probability"));
+        json.WriteBoolean("from_negation", link.FromNegation);
+        json.WriteBoolean("to_negation", link.ToNegation);
     }
 
     private static void WriteScores(Utf8JsonWriter json, EntailmentScores scores, string where)

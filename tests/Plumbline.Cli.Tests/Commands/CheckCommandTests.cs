@@ -1,5 +1,6 @@
 using System.Text.Json;
 using Plumbline.Cli.Tests.Doubles;
+using Plumbline.Core.Coherence;
 
 namespace Plumbline.Cli.Tests.Commands;
 
@@ -76,6 +77,19 @@ public sealed class CheckCommandTests
     [InlineData("--contested-at", "-0.5")]
     [InlineData("--contested-at", "much")]
     [InlineData("--format", "xml")]
+    [InlineData("--integrity-gap", "1.5")]
+    [InlineData("--integrity-gap", "-0.1")]
+    [InlineData("--belief-form", "cube")]
+    [InlineData("--link-floor", "1.2")]
+    [InlineData("--conflicts", "ignore")]
+    [InlineData("--contradictions", "twice")]
+    [InlineData("--nli-text", "negation")]
+    [InlineData("--cut-off", "trim")]
+    [InlineData("--integral-claim", "skip")]
+    [InlineData("--claim-belief", "yes")]
+    [InlineData("--direct-answer", "guess")]
+    [InlineData("--samples", "0")]
+    [InlineData("--samples", "2.5")]
     public async Task Check_BadOptionValue_ExitsTwoWithOneLine(string option, string value)
     {
         var result = await Plumb.RunAsync("check", TestClaims.Bats, "--model", "recording:x.jsonl", option, value);
@@ -84,6 +98,51 @@ public sealed class CheckCommandTests
         var line = Assert.Single(result.ErrorLines);
         Assert.StartsWith("plumb: ", line);
         Assert.Contains(value, line);
+    }
+
+    [Fact]
+    public async Task Check_EngineRuleOptions_ReachTheEngineAndTheReport()
+    {
+        using var folder = new TempDirectory();
+        var recording = await Recordings.WriteAsync(folder.File("rec.jsonl"), (TestClaims.Bats, 0.9));
+
+        var result = await Plumb.RunAsync(
+            "check", TestClaims.Bats, "--model", "recording:" + recording, "--format", "json",
+            "--integrity-gap", "0.05", "--belief-form", "normalised-difference", "--link-floor", "0.6", "--conflicts", "drop",
+            "--contradictions", "once-per-pair", "--nli-text", "negation-when-false", "--cut-off", "keep",
+            "--integral-claim", "stop", "--claim-belief", "on", "--direct-answer", "paired");
+
+        Assert.True(result.ExitCode == 0, result.ToString());
+        using var report = JsonDocument.Parse(result.Output);
+        var rules = report.RootElement.GetProperty("settings").GetProperty("rules");
+        Assert.Equal(0.05, rules.GetProperty("integrity_gap").GetDouble());
+        Assert.Equal("normalised_difference", rules.GetProperty("belief_form").GetString());
+        Assert.Equal(0.6, rules.GetProperty("link_floor").GetDouble());
+        Assert.Equal(("drop", "once_per_pair", "negation_when_false"), (rules.GetProperty("conflicts").GetString(), rules.GetProperty("contradictions").GetString(), rules.GetProperty("nli_text").GetString()));
+        Assert.Equal((false, false, true), (rules.GetProperty("discard_cut_off").GetBoolean(), rules.GetProperty("expand_integral_claim").GetBoolean(), rules.GetProperty("claim_belief").GetBoolean()));
+        Assert.Equal("paired", rules.GetProperty("direct_answer").GetString());
+        // The claim (0.9 against 0.1 for its negation) is integral at once, so with --integral-claim stop it is
+        // answered by its own belief: one statement, nothing explained.
+        var claim = ReportJson.Claim(report, "c1");
+        Assert.Equal(1, claim.GetProperty("statements").GetArrayLength());
+        Assert.True(claim.GetProperty("answer").GetBoolean());
+    }
+
+    [Fact]
+    public async Task Check_ThreeSampledTrees_StabilityInTheReport()
+    {
+        using var folder = new TempDirectory();
+        var recording = await Recordings.WriteAsync(folder.File("rec.jsonl"), CoherenceOptions.Default with { Samples = 3 }, (TestClaims.Bats, 0.9));
+
+        var result = await Plumb.RunAsync("check", TestClaims.Bats, "--model", "recording:" + recording, "--format", "json", "--samples", "3");
+
+        Assert.True(result.ExitCode == 0, result.ToString());
+        using var report = JsonDocument.Parse(result.Output);
+        // The scripted model writes the same explanations for every sample, so all three trees agree.
+        var stability = ReportJson.Claim(report, "c1").GetProperty("stability");
+        Assert.Equal((3, 3, false), (stability.GetProperty("trees").GetInt32(), stability.GetProperty("agreeing").GetInt32(), stability.GetProperty("tied").GetBoolean()));
+        Assert.Equal(1.0, report.RootElement.GetProperty("figures").GetProperty("mean_stability").GetDouble());
+        Assert.Equal(3, report.RootElement.GetProperty("settings").GetProperty("rules").GetProperty("samples").GetInt32());
     }
 
     [Fact]

@@ -29,7 +29,12 @@ public sealed class RootCommandTests
         var result = await Plumb.RunAsync("check", "--help");
 
         Assert.Equal(0, result.ExitCode);
-        foreach (var option in new[] { "--model", "--nli-model", "--negation", "--weighting", "--contested-at", "--export-wcnf", "--format", "--output" })
+        foreach (var option in new[]
+        {
+            "--model", "--nli-model", "--negation", "--weighting", "--contested-at", "--export-wcnf", "--format", "--output",
+            "--integrity-gap", "--belief-form", "--link-floor", "--conflicts", "--contradictions", "--nli-text", "--cut-off",
+            "--integral-claim", "--claim-belief", "--direct-answer", "--samples",
+        })
         {
             Assert.Contains(option, result.Output);
         }

@@ -9,10 +9,13 @@ namespace Plumbline.Cli.Tests.Doubles;
 internal static class Recordings
 {
     /// <summary>Records every request the engine makes (default settings) to judge each claim; returns the file's path.</summary>
-    public static async Task<string> WriteAsync(string path, params (string Claim, double PTrue)[] claims)
+    public static Task<string> WriteAsync(string path, params (string Claim, double PTrue)[] claims) =>
+        WriteAsync(path, CoherenceOptions.Default, claims);
+
+    /// <summary>Records every request the engine makes with the given settings.</summary>
+    public static async Task<string> WriteAsync(string path, CoherenceOptions options, params (string Claim, double PTrue)[] claims)
     {
         var model = new ScriptedLanguageModel(claims.ToDictionary(c => c.Claim, c => c.PTrue));
-        var options = CoherenceOptions.Default;
         await using (var writer = RecordingWriter.Create(path, options.PromptVersion))
         {
             var engine = new CoherenceEngine(new RecordingTap(model, writer), new NeutralScorer(), new CpSatMaxSatSolver(), options, TimeProvider.System);

@@ -1,7 +1,9 @@
 using System.Text.Json;
+using Plumbline.Core.Coherence;
+using Plumbline.Core.Entailment;
 using Plumbline.Core.Runs;
-using Plumbline.Reports.Model;
 using Plumbline.Reports.Json;
+using Plumbline.Reports.Model;
 using Plumbline.Reports.Tests.Fixtures;
 using Plumbline.Reports.Tests.Schema;
 
@@ -61,6 +63,20 @@ public sealed class JsonReportWriterTests
             "objective_cost", "model_calls", "tokens", "timings_ms", "error",
         ];
         Assert.Equal(expected, Claim(document, 0).EnumerateObject().Select(p => p.Name));
+    }
+
+    [Fact]
+    public async Task WriteAsync_LinkScoredOnANegation_FlagsTheNegatedSide()
+    {
+        var verdict = SampleReports.Settled with { Links = [new Link(2, 0, EntailmentKind.Contradiction, 0.95, FromNegation: true)] };
+        var json = await ReportOutput.TextAsync(new JsonReportWriter(), SampleReports.Report([verdict], SampleReports.Started.AddSeconds(1)));
+        using var document = JsonDocument.Parse(json);
+
+        var link = Claim(document, 0).GetProperty("links")[0];
+        Assert.True(link.GetProperty("from_negation").GetBoolean());
+        Assert.False(link.GetProperty("to_negation").GetBoolean());
+        var results = ReportSchemaFile.Evaluate(json);
+        Assert.True(results.IsValid, ReportSchemaFile.Describe(results));
     }
 
     [Fact]

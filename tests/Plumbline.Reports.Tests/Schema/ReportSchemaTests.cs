@@ -35,6 +35,7 @@ public sealed class ReportSchemaTests
         ["gate without result"] = r => r["gates"] = new JsonArray(new JsonObject { ["name"] = "g", ["value"] = 1, ["comparison"] = ">=", ["threshold"] = 1 }),
         ["notice missing"] = r => r.Remove("notice"),
         ["weighting unknown"] = r => r["settings"]!["weighting"] = "heavy",
+        ["link without negation flags"] = r => ((JsonObject)Claim(r, 0)["links"]![0]!).Remove("from_negation"),
         ["accuracy without interval"] = r => ((JsonObject)r["figures"]!["direct_accuracy"]!).Remove("wilson_95"),
     };
 

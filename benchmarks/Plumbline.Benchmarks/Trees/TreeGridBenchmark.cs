@@ -1,0 +1,279 @@
+using System.Diagnostics;
+using System.Globalization;
+using System.IO.Compression;
+using System.Security.Cryptography;
+using System.Text.Json;
+using Plumbline.Core.Claims;
+using Plumbline.Core.Coherence;
+using Plumbline.Core.Entailment;
+using Plumbline.Core.Language;
+using Plumbline.Core.MaxSat;
+using Plumbline.Core.Runs;
+using Plumbline.Models.Recording;
+using Plumbline.Nli;
+using Plumbline.Solver;
+
+namespace Plumbline.Benchmarks.Trees;
+
+/// <summary>
+/// The whole engine over recorded explanation trees with gold labels (a claim file and a recording in one
+/// folder), with a given NLI model: direct and coherent accuracy with Wilson intervals, overturns and the
+/// share of them that were right, for the engine's defaults or for a grid of settings, and two link-health
+/// shares of the NLI model on tree pairs. NLI scores are kept per model in a cache folder, so a grid reruns
+/// without the model and a new model costs one scoring pass.
+/// </summary>
+internal static class TreeGridBenchmark
+{
+    private const string Usage =
+        "trees --trees DIR [--nli-model DIR] [--cache DIR] [--grid defaults|full] [--workers N] [--limit N] [--check-solver]";
+
+    public static async Task<int> RunAsync(string[] args, TextWriter output, TextWriter error)
+    {
+        string? trees = null, nliModel = null, cacheFolder = null;
+        var grid = "defaults";
+        int workers = 2, limit = int.MaxValue;
+        var checkSolver = false;
+        for (var i = 0; i < args.Length; i++)
+        {
+            var next = i + 1 < args.Length ? args[i + 1] : null;
+            int? count = next is not null && int.TryParse(next, NumberStyles.None, CultureInfo.InvariantCulture, out var parsed) && parsed > 0 ? parsed : null;
+            switch (args[i])
+            {
+                case "--trees" when next is not null: trees = next; i++; break;
+                case "--nli-model" when next is not null: nliModel = next; i++; break;
+                case "--cache" when next is not null: cacheFolder = next; i++; break;
+                case "--grid" when next is "defaults" or "full": grid = next; i++; break;
+                case "--workers" when count is { } n: workers = n; i++; break;
+                case "--limit" when count is { } n: limit = n; i++; break;
+                case "--check-solver": checkSolver = true; break;
+                default:
+                    error.WriteLine($"trees: bad option '{args[i]}'; usage: {Usage}");
+                    return 2;
+            }
+        }
+
+        if (trees is null)
+        {
+            error.WriteLine($"trees: --trees DIR is required (a folder with claims.jsonl and recording.jsonl[.gz]); usage: {Usage}");
+            return 2;
+        }
+
+        nliModel ??= RepositoryPaths.ShippedNliModel();
+        cacheFolder ??= Path.Combine(RepositoryPaths.Root(), "artifacts", "trees-cache");
+        try
+        {
+            var claims = ReadClaims(Path.Combine(trees, "claims.jsonl")).Take(limit).ToList();
+            var recording = await OpenRecordingAsync(trees, cacheFolder);
+            using var model = NliModel.Load(nliModel);
+            var cache = ScoreCache.Open(cacheFolder, model.ModelSha256);
+            output.WriteLine($"trees: {claims.Count} claims from {trees}");
+            output.WriteLine($"NLI model: {model.Describe}; model.onnx sha256 {model.ModelSha256}");
+            output.WriteLine($"score cache: {cache.Path} ({cache.Count} pairs)");
+
+            var defaults = CoherenceOptions.Default;
+            var cells = grid == "full"
+                ? [.. GridCell.Variations(defaults), .. GridCell.Full()]
+                : GridCell.Variations(defaults);
+            // Link health reads every statement by its own text under the default tree rules.
+            var health = new GridCell(defaults with { NliText = NliText.Statement });
+            var planned = cells.Append(health).GroupBy(c => c.PairShape).Select(g => g.First()).ToList();
+
+            await FillCacheAsync(claims, recording, model, cache, planned, workers, output, error);
+
+            var solver = new ExactSmallSolver();
+            var scorer = new CachedScorer(cache, model.Describe, planning: false);
+            output.WriteLine();
+            output.WriteLine($"{"",2} {GridCell.Header} | {"direct",-6} {"paired",-6} {"coherent  [Wilson 95%]",-23} {"gain",6} | {"overturned",-10} {"right",-11} | {"contested",9} {"norm. margin",12} | other settings");
+            var results = new List<(GridCell Cell, CellFigures Figures)>();
+            IReadOnlyList<Verdict>? healthVerdicts = null;
+            foreach (var cell in cells.Append(health).Distinct())
+            {
+                var watch = Stopwatch.StartNew();
+                var verdicts = await JudgeAllAsync(claims, new CoherenceEngine(recording, scorer, solver, cell.Options, TimeProvider.System), workers);
+                var figures = CellFigures.Of(verdicts);
+                if (cell == health)
+                {
+                    healthVerdicts = verdicts;
+                }
+
+                if (!cells.Contains(cell))
+                {
+                    continue;
+                }
+
+                results.Add((cell, figures));
+                var mark = cell.Options == defaults ? "*" : "";
+                output.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                    $"{mark,2} {cell.Columns} | {Percent(figures.Direct),-6} {Percent(figures.PairedDirect),-6} {Percent(figures.Coherent)} [{Percent(figures.Coherent.Low)}-{Percent(figures.Coherent.High)}]{"",4} {figures.GainPoints,6:+0.0;-0.0;0.0} | {figures.Overturned,4} {Share(figures.Overturned, figures.Claims),-5} {figures.OverturnedRight,4} {Share(figures.OverturnedRight, figures.Overturned),-6} | {figures.Contested,9} {figures.MeanNormalisedMargin,12:0.0000} | {cell.Extras} ({watch.Elapsed.TotalSeconds:0.0} s{(figures.Failed > 0 ? $", {figures.Failed} failed" : "")})"));
+            }
+
+            PrintSummary(output, results, defaults);
+            var links = LinkHealth.Of(healthVerdicts!);
+            output.WriteLine();
+            output.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"link health (default tree rules, integrity gap {defaults.IntegrityGap:0.##}, own texts, most likely label):"));
+            output.WriteLine($"  same-answer first-level explanation pairs linked as contradiction: {Share(links.SameAnswerContradictions, links.SameAnswerLinks)} ({links.SameAnswerContradictions} of {links.SameAnswerLinks} non-neutral links)");
+            output.WriteLine($"  claim-explanation links against the answer the explanation was written for: {Share(links.ClaimLinksAgainst, links.ClaimLinks)} ({links.ClaimLinksAgainst} of {links.ClaimLinks})");
+
+            if (checkSolver)
+            {
+                await CheckSolverAsync(claims, recording, scorer, defaults, output);
+            }
+
+            return 0;
+        }
+        catch (Exception e) when (e is IOException or NliModelException or RecordingFormatException or JsonException or InvalidDataException)
+        {
+            error.WriteLine($"trees: {e.Message}");
+            return 2;
+        }
+    }
+
+    /// <summary>Judges every claim, <paramref name="workers"/> at a time, keeping the claim order.</summary>
+    private static async Task<Verdict[]> JudgeAllAsync(IReadOnlyList<Claim> claims, CoherenceEngine engine, int workers)
+    {
+        var verdicts = new Verdict[claims.Count];
+        await Parallel.ForEachAsync(
+            Enumerable.Range(0, claims.Count),
+            new ParallelOptions { MaxDegreeOfParallelism = workers },
+            async (i, token) => verdicts[i] = await engine.JudgeAsync(claims[i], token));
+        return verdicts;
+    }
+
+    /// <summary>
+    /// Runs the engine once per distinct pair shape with a scorer that notes unscored pairs, then scores
+    /// those with the ONNX model in chunks, appending each chunk to the cache as it finishes.
+    /// </summary>
+    private static async Task FillCacheAsync(
+        IReadOnlyList<Claim> claims,
+        ILanguageModel recording,
+        NliModel model,
+        ScoreCache cache,
+        IReadOnlyList<GridCell> planned,
+        int workers,
+        TextWriter output,
+        TextWriter error)
+    {
+        var planner = new CachedScorer(cache, model.Describe, planning: true);
+        foreach (var cell in planned)
+        {
+            await JudgeAllAsync(claims, new CoherenceEngine(recording, planner, new ExactSmallSolver(), cell.Options, TimeProvider.System), workers);
+        }
+
+        var missing = planner.Missing.Keys.ToList();
+        output.WriteLine($"pairs to score: {missing.Count} (the rest are cached)");
+        if (missing.Count == 0)
+        {
+            return;
+        }
+
+        using var scorer = new OnnxEntailmentScorer(model, new NliScorerOptions { Cache = false });
+        const int Chunk = 1024;
+        var watch = Stopwatch.StartNew();
+        for (var start = 0; start < missing.Count; start += Chunk)
+        {
+            var chunk = missing.GetRange(start, Math.Min(Chunk, missing.Count - start));
+            var scores = await scorer.ScoreAsync(chunk, CancellationToken.None);
+            cache.Add(chunk, scores);
+            var done = start + chunk.Count;
+            var rate = done / watch.Elapsed.TotalSeconds;
+            error.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"trees: scored {done} of {missing.Count} pairs, {rate:0} pairs/s, about {(missing.Count - done) / rate / 60:0.0} min left"));
+        }
+
+        output.WriteLine(string.Create(CultureInfo.InvariantCulture,
+            $"scored {missing.Count} pairs in {watch.Elapsed.TotalMinutes:0.0} min ({missing.Count / watch.Elapsed.TotalSeconds:0} pairs/s)"));
+    }
+
+    /// <summary>Per setting, the mean coherent accuracy over the full grid's cells that use it, and the best cell.</summary>
+    private static void PrintSummary(TextWriter output, List<(GridCell Cell, CellFigures Figures)> results, CoherenceOptions defaults)
+    {
+        var full = results.Where(r => r.Cell.Extras.Length == 0).ToList();
+        if (full.Count <= 1)
+        {
+            return;
+        }
+
+        output.WriteLine();
+        output.WriteLine($"mean coherent accuracy per setting over the {full.Count} cells that vary only the six grid settings:");
+        void Marginal<T>(string name, Func<CoherenceOptions, T> setting)
+        {
+            var levels = full.GroupBy(r => setting(r.Cell.Options))
+                .Select(g => string.Create(CultureInfo.InvariantCulture, $"{g.Key}: {100 * g.Average(r => r.Figures.Coherent.Value):0.00}%"));
+            output.WriteLine($"  {name,-22} {string.Join(" | ", levels)}");
+        }
+
+        Marginal("integrity gap", o => o.IntegrityGap);
+        Marginal("belief form", o => o.BeliefForm);
+        Marginal("link floor", o => o.LinkFloor);
+        Marginal("conflicts", o => o.Conflicts);
+        Marginal("contradictions", o => o.Contradictions);
+        Marginal("claim belief", o => o.ClaimBelief);
+        Marginal("nli text", o => o.NliText);
+
+        var best = full.MaxBy(r => r.Figures.Coherent.Value);
+        var atDefaults = results.First(r => r.Cell.Options == defaults).Figures;
+        output.WriteLine(string.Create(CultureInfo.InvariantCulture,
+            $"best cell: {best.Cell.Columns} coherent {Percent(best.Figures.Coherent)}, gain {best.Figures.GainPoints:+0.0;-0.0} points; defaults: coherent {Percent(atDefaults.Coherent)}, gain {atDefaults.GainPoints:+0.0;-0.0} points"));
+    }
+
+    /// <summary>Solves every default-settings problem with CP-SAT too and counts the optima that agree.</summary>
+    private static async Task CheckSolverAsync(IReadOnlyList<Claim> claims, ILanguageModel recording, IEntailmentScorer scorer, CoherenceOptions options, TextWriter output)
+    {
+        var exact = await JudgeAllAsync(claims, new CoherenceEngine(recording, scorer, new ExactSmallSolver(), options, TimeProvider.System), 2);
+        var cpSat = await JudgeAllAsync(claims, new CoherenceEngine(recording, scorer, new CpSatMaxSatSolver(CpSatOptions.Default with { Workers = 1 }, TimeProvider.System), options, TimeProvider.System), 2);
+        var same = exact.Zip(cpSat).Count(p => p.First.ObjectiveCost == p.Second.ObjectiveCost && p.First.Margin == p.Second.Margin && p.First.Answer == p.Second.Answer);
+        output.WriteLine();
+        output.WriteLine($"solver check: the benchmark's exact search and CP-SAT agree on optimum cost, margin and answer for {same} of {claims.Count} claims");
+    }
+
+    private static IEnumerable<Claim> ReadClaims(string path)
+    {
+        var line = 0;
+        foreach (var text in File.ReadLines(path))
+        {
+            line++;
+            if (string.IsNullOrWhiteSpace(text))
+            {
+                continue;
+            }
+
+            using var json = JsonDocument.Parse(text);
+            var root = json.RootElement;
+            var gold = root.TryGetProperty("gold", out var g) && g.ValueKind is JsonValueKind.True or JsonValueKind.False ? g.GetBoolean() : (bool?)null;
+            yield return new Claim(
+                root.GetProperty("id").GetString() ?? throw new InvalidDataException($"{path}:{line}: id: missing"),
+                root.GetProperty("claim").GetString() ?? throw new InvalidDataException($"{path}:{line}: claim: missing"),
+                gold ?? throw new InvalidDataException($"{path}:{line}: gold: expected true or false"));
+        }
+    }
+
+    /// <summary>The folder's recording; a gzip file is unpacked once into the cache folder, named by its hash.</summary>
+    private static async Task<RecordingLanguageModel> OpenRecordingAsync(string folder, string cacheFolder)
+    {
+        var plain = Path.Combine(folder, "recording.jsonl");
+        if (!File.Exists(plain))
+        {
+            var packed = Path.Combine(folder, "recording.jsonl.gz");
+            var hash = Convert.ToHexStringLower(SHA256.HashData(await File.ReadAllBytesAsync(packed)))[..16];
+            Directory.CreateDirectory(cacheFolder);
+            plain = Path.Combine(cacheFolder, $"recording-{hash}.jsonl");
+            if (!File.Exists(plain))
+            {
+                await using var input = new GZipStream(File.OpenRead(packed), CompressionMode.Decompress);
+                await using var unpacked = File.Create(plain + ".part");
+                await input.CopyToAsync(unpacked);
+                unpacked.Close();
+                File.Move(plain + ".part", plain);
+            }
+        }
+
+        return await RecordingLanguageModel.LoadAsync(plain, PromptBook.PromptVersion, CancellationToken.None);
+    }
+
+    private static string Percent(Proportion p) => Percent(p.Value);
+
+    private static string Percent(double share) => (100 * share).ToString("0.0", CultureInfo.InvariantCulture) + "%";
+
+    private static string Share(int part, int whole) => whole == 0 ? "-" : Percent((double)part / whole);
+}
