@@ -9,6 +9,7 @@ return name switch
     "nli" => await Plumbline.Benchmarks.NliBenchmark.RunAsync(options, Console.Out, Console.Error),
     "trees" => await Plumbline.Benchmarks.Trees.TreeGridBenchmark.RunAsync(options, Console.Out, Console.Error),
     "local" => await Plumbline.Benchmarks.LocalModelBenchmark.RunAsync(options, Console.Out, Console.Error),
+    "latency" => await Plumbline.Benchmarks.Live.LatencyBenchmark.RunAsync(options, Console.Out, Console.Error),
     _ => Usage(name),
 };
 
@@ -25,5 +26,6 @@ static int Usage(string name)
     Console.Error.WriteLine("  trees --trees DIR [--nli-model DIR] [--cache DIR] [--grid defaults|full] [--workers N] [--limit N] [--check-solver]");
     Console.Error.WriteLine("        the engine over recorded trees with gold labels: accuracies, overturns, link health; NLI scores cached per model");
     Console.Error.WriteLine("  local [--model DIR] [--threads N] [--runs N] [--claims N] [--tokens N]   local model: load, memory, tokens/s, answer time, calls per claim");
+    Console.Error.WriteLine("  latency [--delay-ms L] [--claims N] [--cap K] [--in-flight N]   live endpoint on 127.0.0.1 answering after L ms: one claim against its dependent rounds, N claims against total calls / K");
     return 2;
 }

@@ -1,6 +1,5 @@
 using Plumbline.Core.Inputs;
 using Plumbline.Core.Language.Sources;
-using Plumbline.LocalModel;
 using Plumbline.Models.Cache;
 using Plumbline.Nli;
 
@@ -40,7 +39,6 @@ internal static class Guarded
     internal static string? UsageMessage(Exception e) => e switch
     {
         UsageException or InputFormatException or NliModelException or ModelSourceException or ResponseCacheException => e.Message,
-        LocalModelException => $"--model: {e.Message}",
         FileNotFoundException notFound => $"{notFound.FileName ?? "file"}: file not found",
         DirectoryNotFoundException or UnauthorizedAccessException or IOException => e.Message,
         _ => null,

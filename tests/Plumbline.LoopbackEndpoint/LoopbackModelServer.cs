@@ -28,6 +28,8 @@ public sealed class LoopbackModelServer : IAsyncDisposable
     private readonly ConcurrentDictionary<string, int> byPrompt = new(StringComparer.Ordinal);
     private readonly ConcurrentQueue<string> authorizations = new();
     private readonly ConcurrentQueue<Fault> faults = new();
+    private readonly ConcurrentQueue<int?> seeds = new();
+    private readonly ConcurrentQueue<string> extraHeaders = new();
     private int requests;
     private int inFlight;
     private int mostInFlight;
@@ -52,6 +54,12 @@ public sealed class LoopbackModelServer : IAsyncDisposable
     public IReadOnlyCollection<string> Authorizations => authorizations;
 
     public IReadOnlyCollection<Fault> InjectedFaults => faults;
+
+    /// <summary>The <c>seed</c> of every request (null where none was sent).</summary>
+    public IReadOnlyCollection<int?> Seeds => seeds;
+
+    /// <summary>Every request header whose name starts with "X-", as "Name: value".</summary>
+    public IReadOnlyCollection<string> ExtraHeaders => extraHeaders;
 
     public static async Task<LoopbackModelServer> StartAsync(LoopbackOptions? options = null)
     {
@@ -106,6 +114,11 @@ public sealed class LoopbackModelServer : IAsyncDisposable
         byPrompt.AddOrUpdate(prompt, 1, (_, n) => n + 1);
         var authorization = context.Request.Headers.Authorization.ToString();
         authorizations.Enqueue(authorization);
+        seeds.Enqueue(body.TryGetProperty("seed", out var seed) ? seed.GetInt32() : null);
+        foreach (var header in context.Request.Headers.Where(h => h.Key.StartsWith("X-", StringComparison.OrdinalIgnoreCase)))
+        {
+            extraHeaders.Enqueue($"{header.Key}: {header.Value}");
+        }
         if (options.Delay > TimeSpan.Zero)
         {
             await Task.Delay(options.Delay).ConfigureAwait(false);

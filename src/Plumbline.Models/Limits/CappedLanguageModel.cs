@@ -25,35 +25,28 @@ public sealed class CappedLanguageModel : ILanguageModel
 
     public string Describe => inner.Describe;
 
-    public async Task<GenerationResult> GenerateAsync(GenerationRequest request, CancellationToken cancellationToken)
-    {
-        await slots.WaitAsync(cancellationToken).ConfigureAwait(false);
-        try
-        {
-            return await inner.GenerateAsync(request, cancellationToken).ConfigureAwait(false);
-        }
-        finally
-        {
-            slots.Release();
-        }
-    }
+    public Task<GenerationResult> GenerateAsync(GenerationRequest request, CancellationToken cancellationToken) =>
+        InSlotAsync(() => inner.GenerateAsync(request, cancellationToken), cancellationToken);
 
-    public async Task<AnswerProbabilities> ScoreAnswersAsync(AnswerRequest request, CancellationToken cancellationToken)
-    {
-        await slots.WaitAsync(cancellationToken).ConfigureAwait(false);
-        try
-        {
-            return await inner.ScoreAnswersAsync(request, cancellationToken).ConfigureAwait(false);
-        }
-        finally
-        {
-            slots.Release();
-        }
-    }
+    public Task<AnswerProbabilities> ScoreAnswersAsync(AnswerRequest request, CancellationToken cancellationToken) =>
+        InSlotAsync(() => inner.ScoreAnswersAsync(request, cancellationToken), cancellationToken);
 
     public async ValueTask DisposeAsync()
     {
         await inner.DisposeAsync().ConfigureAwait(false);
         slots.Dispose();
+    }
+
+    private async Task<T> InSlotAsync<T>(Func<Task<T>> call, CancellationToken cancellationToken)
+    {
+        await slots.WaitAsync(cancellationToken).ConfigureAwait(false);
+        try
+        {
+            return await call().ConfigureAwait(false);
+        }
+        finally
+        {
+            slots.Release();
+        }
     }
 }

@@ -58,7 +58,23 @@ public sealed class HttpLanguageModelTests
 
         var answers = new ScriptedAnswers();
         Assert.Equal([answers.Explanation("Bats are mammals", true, 0), answers.Explanation("Bats are mammals", true, 1), answers.Explanation("Bats are mammals", true, 2)], result.Texts);
-        Assert.Contains("42", opened.Identity.CanonicalJson, StringComparison.Ordinal);
+        Assert.Contains("\"seed\":\"42\"", opened.Identity.CanonicalJson, StringComparison.Ordinal);
+        // The set-up check and the generation both carried the seed.
+        Assert.Equal([42, 42], server.Seeds);
+    }
+
+    [Fact]
+    public async Task Requests_CarryExtraHeadersFromTheirVariables()
+    {
+        await using var server = await LoopbackModelServer.StartAsync();
+        var options = Endpoint.Options() with { Headers = [new HeaderFromVariable("X-Project", "PLUMB_TEST_PROJECT")] };
+        var opened = await Endpoint.OpenAsync(server, options, new Dictionary<string, string> { ["PLUMB_TEST_PROJECT"] = "proj-7" });
+        await using var model = opened.Model;
+
+        await model.ScoreAnswersAsync(new AnswerRequest(Statement, PromptBook.Answer(Statement)), CancellationToken.None);
+
+        Assert.Equal(["X-Project: proj-7", "X-Project: proj-7"], server.ExtraHeaders);
+        Assert.DoesNotContain("proj-7", model.Describe, StringComparison.Ordinal);
     }
 
     [Fact]

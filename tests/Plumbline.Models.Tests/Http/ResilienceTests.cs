@@ -91,4 +91,23 @@ public sealed class ResilienceTests
         Assert.True(clock.Elapsed >= TimeSpan.FromMilliseconds(1500), $"three requests over the allowance took only {clock.Elapsed}");
         Assert.Equal(34, server.Requests);
     }
+
+    [Fact]
+    public async Task TokensPerMinute_OnceSpent_WaitsForRefills()
+    {
+        await using var server = await LoopbackModelServer.StartAsync();
+        // This 23-character prompt is estimated at 6 tokens (characters / 4, rounded down, plus the one answer
+        // token); 360 a minute is a bucket of 360 (60 such requests) refilled by 6 a second, so three more
+        // requests need three refills.
+        const string prompt = "Q: s? True or False?\nA:";
+        var limited = Endpoint.Options(calls: Endpoint.Quick() with { TokensPerMinute = 360 });
+        var opened = await Endpoint.OpenAsync(server, limited);
+        await using var model = opened.Model;
+        await Task.WhenAll(Enumerable.Range(0, 60).Select(_ => model.ScoreAnswersAsync(new AnswerRequest("s", prompt), CancellationToken.None)));
+
+        var clock = Stopwatch.StartNew();
+        await Task.WhenAll(Enumerable.Range(0, 3).Select(_ => model.ScoreAnswersAsync(new AnswerRequest("s", prompt), CancellationToken.None)));
+
+        Assert.True(clock.Elapsed >= TimeSpan.FromMilliseconds(1500), $"three requests over the allowance took only {clock.Elapsed}");
+    }
 }

@@ -21,13 +21,15 @@ public sealed class LiveModelTests
         var faults = FaultPlans.Always("Doomed claim", Fault.Unavailable, FaultPlans.Random(0.2, seed: 7,
             Fault.TooManyRequests, Fault.ServerError, Fault.Unavailable, Fault.Reset, Fault.Slow, Fault.MalformedJson, Fault.MissingLogprobs));
         // Retry-After: 0 keeps the many 429s quick; that the wait is honoured is checked on its own in the Models tests.
-        await using var server = await LoopbackModelServer.StartAsync(new LoopbackOptions(SlowBy: TimeSpan.FromSeconds(3), RetryAfterSeconds: 0)
+        // A slow answer comes after 5 s, well past the 2 s each attempt gets; 2 s is long enough that a busy
+        // machine does not turn a 503 into a timeout.
+        await using var server = await LoopbackModelServer.StartAsync(new LoopbackOptions(SlowBy: TimeSpan.FromSeconds(5), RetryAfterSeconds: 0)
         {
             Faults = (n, p) => n == 1 ? Fault.None : faults(n, p),
         });
         var report = run.File("report.json");
 
-        var result = await run.RunAsync(run.Sweep(server, report, claims, null, "--retries", "6", "--retry-delay", "0.01", "--call-timeout", "0.5"));
+        var result = await run.RunAsync(run.Sweep(server, report, claims, null, "--retries", "6", "--retry-delay", "0.01", "--call-timeout", "2"));
 
         Assert.True(result.ExitCode == 3, result.ToString());
         using var json = JsonDocument.Parse(await File.ReadAllTextAsync(report));
