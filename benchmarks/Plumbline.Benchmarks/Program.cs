@@ -7,6 +7,8 @@ return name switch
 {
     "engine" => await EngineOverhead.RunAsync(options, Console.Out, Console.Error),
     "nli" => await Plumbline.Benchmarks.NliBenchmark.RunAsync(options, Console.Out, Console.Error),
+    "pipeline-memory" => await Plumbline.Benchmarks.Pipeline.PipelineBenchmarks.MemoryAsync(options, Console.Out, Console.Error),
+    "pipeline-throughput" => await Plumbline.Benchmarks.Pipeline.PipelineBenchmarks.ThroughputAsync(options, Console.Out, Console.Error),
     "trees" => await Plumbline.Benchmarks.Trees.TreeGridBenchmark.RunAsync(options, Console.Out, Console.Error),
     "local" => await Plumbline.Benchmarks.LocalModelBenchmark.RunAsync(options, Console.Out, Console.Error),
     "latency" => await Plumbline.Benchmarks.Live.LatencyBenchmark.RunAsync(options, Console.Out, Console.Error),
@@ -22,6 +24,8 @@ static int Usage(string name)
 
     Console.Error.WriteLine("usage: Plumbline.Benchmarks <benchmark> [options]");
     Console.Error.WriteLine("  engine [--runs N] [--warmup N] [--workers N]   engine overhead per full-size tree (instant model and NLI, CP-SAT)");
+    Console.Error.WriteLine("  pipeline-memory [--claims N M]   peak RSS of whole runs of N and M generated claims (default 1000, 10000), side by side");
+    Console.Error.WriteLine("  pipeline-throughput [--claims N] [--in-flight K]   claims/min on full-size trees with the shipped NLI model; time shares");
     Console.Error.WriteLine("  nli [--model DIR] [--pairs N] [--batch N] [--runs N]   NLI scorer pairs/s against session.Run alone; cold start");
     Console.Error.WriteLine("  trees --trees DIR [--nli-model DIR] [--cache DIR] [--grid defaults|full] [--workers N] [--limit N] [--check-solver]");
     Console.Error.WriteLine("        the engine over recorded trees with gold labels: accuracies, overturns, link health; NLI scores cached per model");

@@ -256,14 +256,19 @@ def generate(train, seed, quotas):
     return out
 
 
+# Words WordNet lists as adjectives whose removal changes the meaning or the grammar, not just the detail.
+NOT_MODIFIERS = set("""more most less least only other same such few many much several own very no not fake
+former false mock non ex pseudo alleged""".split())
+
+
 def adjective_positions(words, wordnet):
     """Words read as adjectives: listed as adjectives in WordNet, not mostly nouns, right before another word."""
     out = []
     for i, w in enumerate(words[:-1]):
         core = w.lower()
-        if (i > 0 and core.isalpha() and len(core) > 2 and core not in STOP
-                and wordnet.first_sense(core, "a") and not wordnet.mostly_noun(core)
-                and words[i + 1].isalpha()):
+        if (i > 0 and core.isalpha() and len(core) > 2 and core not in STOP and core not in NOT_MODIFIERS
+                and not core.endswith(("ed", "ing")) and wordnet.first_sense(core, "a") and not wordnet.mostly_noun(core)
+                and words[i + 1].isalpha() and wordnet.mostly_noun(words[i + 1].lower())):
             out.append(i)
     return out
 
@@ -317,4 +322,175 @@ def generate_refinement(train, seed, quotas):
             out.append((p, h, "entailment", "synonym"))
             made += 1
     out += [(p, p, "entailment", "identity") for p in premises[: quotas["identity"]]]
+    return out
+
+
+# Pairs of everyday state words whose swap flips the meaning ("A man is sleeping." / "A man is awake.").
+# A hand list (common practice): WordNet does not link most of these as antonyms.
+STATE_ANTONYMS = [("sleeping", "awake"), ("asleep", "awake"), ("standing", "sitting"), ("empty", "full"),
+                  ("open", "closed"), ("inside", "outside"), ("indoors", "outdoors"), ("wet", "dry"),
+                  ("alive", "dead"), ("clean", "dirty"), ("hot", "cold"), ("happy", "sad"), ("young", "old"),
+                  ("tall", "short"), ("fast", "slow"), ("loud", "quiet"), ("early", "late"), ("day", "night"),
+                  ("asleep", "running"), ("smiling", "frowning"), ("sunny", "rainy"), ("light", "dark"),
+                  ("married", "single"), ("present", "absent"), ("winning", "losing"), ("always", "never")]
+CONNECTIVES = ["{a}, and {b}", "{a}, and {b}", "{a}; {b}", "{a}, and also {b}", "{a}, while {b}"]
+
+
+def antonym_swap(sentence, rng):
+    words = sentence.split(" ")
+    spots = []
+    for i, w in enumerate(words):
+        core = w.strip(".,;:!?").lower()
+        for a, b in STATE_ANTONYMS:
+            if core == a:
+                spots.append((i, b))
+            elif core == b:
+                spots.append((i, a))
+    if not spots:
+        return None
+    i, new = rng.choice(spots)
+    return replace_word(sentence, i, new)
+
+
+def word_share(part, whole):
+    """Share of the words of `part` that occur in `whole` (lower case, punctuation stripped)."""
+    words = [w.strip(".,;:!?\"'").lower() for w in part.split()]
+    pool = {w.strip(".,;:!?\"'").lower() for w in whole.split()}
+    return sum(w in pool for w in words) / max(len(words), 1)
+
+
+def conjoin(first, second, rng):
+    return sentence_case(rng.choice(CONNECTIVES).format(a=first.strip().rstrip(".!?"), b=lower_first(second)))
+
+
+def generate_restatements(train, seed, quotas):
+    """Pairs of the shapes that fill an explanation tree, where the first model read restatements as
+    contradictions: a statement and itself, a statement with an added clause or modifier against the
+    statement (entailment: a statement entails its own parts) and the reverse (neutral), an entailment
+    read backwards when its hypothesis is shorter (neutral), synonym swaps (entailment, both ways) and
+    swaps of everyday state words (contradiction). Train premises only."""
+    rng = random.Random(seed + 2)
+    wordnet = WordNet()
+    names = ("snli_test", "cad_train", "cad_test", "mnli_mismatched", "mnli_sni", "conjnli_adversarial")
+    rows = [(p, h, l) for name in names if name in train for p, h, l in train[name]
+            if 3 <= len(p.split()) <= 25 and 2 <= len(h.split()) <= 20]
+    rng.shuffle(rows)
+    premises = sorted({p for p, _, _ in rows})
+    rng.shuffle(premises)
+    out = []
+
+    def add(source, quota, candidates):
+        made = 0
+        for pair in candidates:
+            if made >= quota:
+                break
+            if pair and pair[0].strip() and pair[1].strip() and pair[0] != pair[1] or (pair and pair[2] == "entailment" and source == "identity"):
+                out.append((pair[0], pair[1], pair[2], source))
+                made += 1
+
+    add("identity", quotas["identity"], ((p, p, "entailment") for p in premises))
+    neutral = [(p, h) for p, h, l in rows if l == "neutral"]
+    entailed = [(p, h) for p, h, l in rows if l == "entailment"]
+    # P with a clause that P itself does not settle, against P (or against the added clause): entailment.
+    add("conjunct_part", quotas["conjunct_part"],
+        ((conjoin(p, h, rng), p, "entailment") if rng.random() < 0.5 else (conjoin(h, p, rng), p, "entailment")
+         for p, h in neutral[: len(neutral) // 2]))
+    add("conjunct_part", quotas["conjunct_part"] // 4,
+        ((conjoin(p, h, rng), sentence_case(h), "entailment") for p, h in entailed[: len(entailed) // 2]))
+    # P against P with an added clause it does not settle: neutral.
+    add("conjunct_added", quotas["conjunct_added"],
+        ((p, conjoin(p, h, rng), "neutral") for p, h in neutral[len(neutral) // 2:]))
+    # An entailment read backwards, where the hypothesis drops detail: neutral.
+    # Caption-style sources only, and only when the hypothesis reuses the premise's words (a sub-description,
+    # not a paraphrase, which would entail back).
+    captions = [(p, h) for name in ("snli_test", "cad_train", "cad_test") for p, h, l in train.get(name, []) if l == "entailment"]
+    rng.shuffle(captions)
+    add("shorter_reversed", quotas["shorter_reversed"],
+        ((h, p, "neutral") for p, h in captions if len(h.split()) + 3 <= len(p.split()) and word_share(h, p) >= 0.75))
+    # A modifier dropped from P (entailment) and added to it (neutral).
+    rng.shuffle(premises)
+    dropped = ((p, without_adjective(p, wordnet, rng)) for p in premises)
+    dropped = [(p, h) for p, h in dropped if h and h != p][: quotas["modifier_dropped"] + quotas["modifier_added"]]
+    add("modifier_dropped", quotas["modifier_dropped"], ((p, h, "entailment") for p, h in dropped))
+    add("modifier_added", quotas["modifier_added"], ((h, p, "neutral") for p, h in dropped[quotas["modifier_dropped"]:]))
+    rng.shuffle(premises)
+
+    def synonym_pairs():
+        for p in premises:
+            h = substitutions(p, lambda w: synonyms(wordnet, w), rng, nouns_only=True)
+            if h and h != p:
+                yield (p, h, "entailment") if rng.random() < 0.5 else (h, p, "entailment")
+
+    add("synonym", quotas["synonym"], synonym_pairs())
+    rng.shuffle(premises)
+
+    def state_pairs():
+        for p in premises:
+            h = antonym_swap(p, rng)
+            if h and h != p:
+                yield (p, h, "contradiction") if rng.random() < 0.5 else (h, p, "contradiction")
+
+    add("state_antonym", quotas["state_antonym"], state_pairs())
+    return out
+
+
+def held_out_added_detail(rows, seed, count):
+    """Added-detail pairs built the same way as the training shapes, but from evaluation files' sentences:
+    (P with an added clause or modifier, P) entailment, and the reverse, neutral. For measuring only."""
+    shapes = dict(identity=0, conjunct_part=count, conjunct_added=count, shorter_reversed=0,
+                  modifier_dropped=count, modifier_added=count, synonym=0, state_antonym=0)
+    made = generate_restatements({"snli_test": rows}, seed + 100, shapes)
+    rng = random.Random(seed + 101)
+    rng.shuffle(made)
+    return [(p, h, l) for p, h, l, _ in made[:count]]
+
+
+
+def generate_negation_crossings(train, seed, quotas):
+    """Pairs where a negation stands on one side only, or on both, without making a contradiction, so that a
+    'not' alone is never read as one: P against the negation of a statement P contradicts (entailment: P rules it
+    out), P against the negation of a statement P leaves open (neutral), P with an added negated clause against P
+    (entailment) and the reverse (neutral), and two spellings of the same negation (entailment). Train premises only."""
+    rng = random.Random(seed + 3)
+    names = ("snli_test", "cad_train", "cad_test", "mnli_mismatched", "mnli_sni", "conjnli_adversarial")
+    rows = [(p, h, l) for name in names if name in train for p, h, l in train[name]
+            if 3 <= len(p.split()) <= 25 and 2 <= len(h.split()) <= 20]
+    rng.shuffle(rows)
+    out = []
+
+    def negated(sentence):
+        v = verbal_negation(sentence)
+        if v and rng.random() < 0.7:
+            return sentence_case(v)
+        return sentence_case(rng.choice(PREFIXES).format(lower_first(sentence)))
+
+    def take(source, label, candidates, quota):
+        made = 0
+        for pair in candidates:
+            if made >= quota:
+                break
+            if pair and pair[0] != pair[1]:
+                out.append((pair[0], pair[1], label, source))
+                made += 1
+
+    contradicting = [(p, h) for p, h, l in rows if l == "contradiction"]
+    neutral = [(p, h) for p, h, l in rows if l == "neutral"]
+    take("ruled_out", "entailment", ((p, negated(h)) for p, h in contradicting), quotas["ruled_out"])
+    take("left_open", "neutral", ((p, negated(h)) for p, h in neutral[: len(neutral) // 2]), quotas["left_open"])
+    half = neutral[len(neutral) // 2:]
+    take("negated_clause_part", "entailment",
+         ((conjoin(p, negated(h), rng), p) for p, h in half[: len(half) // 2]), quotas["negated_clause_part"])
+    take("negated_clause_added", "neutral",
+         ((p, conjoin(p, negated(h), rng)) for p, h in half[len(half) // 2:]), quotas["negated_clause_added"])
+
+    # Two training spellings of one negation (an auxiliary with 'not', and a fixed prefix): contractions stay
+    # out, because the held-out negation check uses them.
+    def respelled():
+        for p, _, _ in rows:
+            v = verbal_negation(p)
+            if v:
+                prefixed = sentence_case(rng.choice(PREFIXES).format(lower_first(p)))
+                yield (sentence_case(v), prefixed) if rng.random() < 0.5 else (prefixed, sentence_case(v))
+
+    take("negation_respelled", "entailment", respelled(), quotas["negation_respelled"])
     return out

@@ -19,10 +19,17 @@ def dynamic_quantize(x):
     return q, scale, zero
 
 
+def row_quantize(x):
+    """quantize.rows_matmul's activations: per-row absmax / 127, round half to even, zero point 128."""
+    scale = torch.clamp(x.abs().amax(-1, keepdim=True), min=1e-12) / 127.0
+    return torch.round(x / scale), scale
+
+
 class EmulatedLinear(nn.Module):
-    def __init__(self, linear, weights_only=True):
+    def __init__(self, linear, weights_only=True, rows=False):
         super().__init__()
         self.weights_only = weights_only
+        self.rows = rows
         w = linear.weight.detach().numpy().T.astype(np.float32)  # [in, out] as exported
         q, scale, zero = quantize_columns(w)
         self.register_buffer("wq", torch.from_numpy(q.astype(np.float64) - zero.astype(np.float64)))
@@ -34,18 +41,22 @@ class EmulatedLinear(nn.Module):
             # DequantizeLinear then an fp32 MatMul, as in the shipped graph.
             w = (self.wq.float() * self.wscale).float()
             return x @ w + self.bias
+        if self.rows:
+            q, scale = row_quantize(x)
+            acc = (q.double() @ self.wq).float()
+            return acc * self.wscale * scale + self.bias
         q, scale, zero = dynamic_quantize(x)
         acc = ((q.double() - zero.double()) @ self.wq).float()
         return acc * (scale * self.wscale) + self.bias
 
 
-def emulate_int8(model, weights_only=True):
+def emulate_int8(model, weights_only=True, rows=False):
     """Return a copy of the fp32 PairClassifier whose encoder Linears and word embedding act as in the int8 graph."""
     import copy
     m = copy.deepcopy(model).eval()
     for layer in m.layers:
         for name in ("query", "key", "value", "attn_out", "ffn_in", "ffn_out"):
-            setattr(layer, name, EmulatedLinear(getattr(layer, name), weights_only))
+            setattr(layer, name, EmulatedLinear(getattr(layer, name), weights_only, rows))
     table = m.word.weight.detach().numpy()
     q, scale, zero = quantize_rows(table)
     deq = (q.astype(np.float32) - zero.astype(np.float32)[:, None]) * scale[:, None]

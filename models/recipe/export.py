@@ -12,11 +12,16 @@ import shutil
 import torch
 
 from bert import PairClassifier
+from calibrate import expected_calibration_error, fit_temperature, gold_of, logits_of
 from emulate import emulate_int8
 from quantize import quantize
 from wordpiece import WordPiece
 
 MAX_LEN = 128
+QUANTIZATION = {
+    "weights": "int8 weights (uint8, per output column, dequantised before fp32 MatMul); uint8 word embeddings per row; fp32 activations",
+    "rows": "int8 MatMulInteger: uint8 weights per output column; activations quantised per token row (absmax/127 around 128), so a pair's scores do not depend on its batch; uint8 word embeddings per row",
+}
 LABELS = ["entailment", "neutral", "contradiction"]
 
 # Invented sentences for the parity checks: accents, punctuation, numbers, casing, long inputs.
@@ -60,6 +65,9 @@ def main():
     ap.add_argument("--base", required=True)
     ap.add_argument("--work", required=True)
     ap.add_argument("--out", required=True)
+    ap.add_argument("--quantization", choices=["weights", "rows"], default="rows")
+    ap.add_argument("--calibration", help="held-out labelled pairs (JSON Lines) to fit the temperature on")
+    ap.add_argument("--calibration-sample", help="a CSV of labelled pairs whose calibration error the C# tests recompute")
     args = ap.parse_args()
     torch.set_num_threads(2)
     os.makedirs(args.out, exist_ok=True)
@@ -79,7 +87,7 @@ def main():
         dynamic_axes={n: {0: "batch", 1: "sequence"} for n in ("input_ids", "attention_mask", "token_type_ids")}
         | {"logits": {0: "batch"}})
     int8_path = os.path.join(args.out, "model.onnx")
-    quantize(fp32_path, int8_path, "word.weight")
+    quantize(fp32_path, int8_path, "word.weight", mode=args.quantization)
     shutil.copy(os.path.join(args.base, "vocab.txt"), os.path.join(args.out, "vocab.txt"))
 
     card = {
@@ -92,8 +100,30 @@ def main():
         "labels": LABELS,
         "inputs": ["input_ids", "attention_mask", "token_type_ids"],
         "output": "logits",
-        "quantization": "int8 weights (uint8, per output column, dequantised before fp32 MatMul); uint8 word embeddings per row; fp32 activations",
+        "quantization": QUANTIZATION[args.quantization],
     }
+    emulated = emulate_int8(model, weights_only=args.quantization == "weights", rows=args.quantization == "rows")
+    calibration = None
+    if args.calibration:
+        with open(args.calibration, encoding="utf-8") as f:
+            held = [(r["premise"], r["hypothesis"], r["label"]) for r in map(json.loads, f)]
+        held_logits, held_gold = logits_of(emulated, tokenizer, held, MAX_LEN), gold_of(held)
+        temperature = fit_temperature(held_logits, held_gold)
+        card["temperature"] = round(temperature, 4)
+        calibration = {"temperature": card["temperature"], "fitted_on_pairs": len(held),
+                       "held_out_ece_before": expected_calibration_error(held_logits, held_gold),
+                       "held_out_ece_after": expected_calibration_error(held_logits, held_gold, card["temperature"])}
+        if args.calibration_sample:
+            import csv
+            with open(args.calibration_sample, encoding="utf-8", newline="") as f:
+                sample = [(r["sentence1"], r["sentence2"], r["label"]) for r in csv.DictReader(f)]
+            sample_logits, sample_gold = logits_of(emulated, tokenizer, sample, MAX_LEN), gold_of(sample)
+            calibration |= {"sample_file": os.path.basename(args.calibration_sample), "sample_pairs": len(sample),
+                            "sample_ece_before": expected_calibration_error(sample_logits, sample_gold),
+                            "sample_ece_after": expected_calibration_error(sample_logits, sample_gold, card["temperature"])}
+        with open(os.path.join(args.out, "reference", "calibration.json"), "w", encoding="utf-8") as f:
+            json.dump(calibration, f, indent=2)
+            f.write("\n")
     with open(os.path.join(args.out, "nli-model.json"), "w", encoding="utf-8") as f:
         json.dump(card, f, indent=2)
         f.write("\n")
@@ -104,7 +134,6 @@ def main():
             f.write(json.dumps({"premise": a, "hypothesis": b, "input_ids": pair_ids, "token_type_ids": types},
                                ensure_ascii=False) + "\n")
 
-    emulated = emulate_int8(model)
     with torch.no_grad(), open(os.path.join(args.out, "reference", "logits.jsonl"), "w", encoding="utf-8") as f:
         for a, b in TOKENIZER_PAIRS[:20]:
             pair_ids, types = tokenizer.encode_pair(a, b, MAX_LEN)

@@ -66,3 +66,41 @@ def evaluate_sources(data):
         "breaking_nli": list(read_breaking(f"{data}/breaking_nli/dataset.jsonl")),
         "cad_dev": list(read_cad_tsv(f"{data}/cad_snli/all_combined/dev.tsv")),
     }
+
+
+def read_extra_tsv(path, labels=LABELS):
+    """The extra/ TSV layout: sentence1, sentence2, gold_label[, orig_label], one header line."""
+    with open(path, encoding="utf-8") as f:
+        next(f)
+        for line in f:
+            parts = line.rstrip("\n").split("\t")
+            if len(parts) >= 3 and parts[2] in labels:
+                yield parts[0], parts[1], parts[2]
+
+
+CURRICULUM_TRAIN = ("boolean", "comparative", "conditional", "counting", "negation", "quantifier")
+
+
+def extra_train_sources(extra, taxinli_rows=()):
+    """The files extra/SOURCES.md marks 'train'. mnli_sni pairs that also occur in TaxiNLI's training rows are
+    dropped so that no pair is seen twice per epoch."""
+    seen = {(p, h) for p, h, _ in taxinli_rows}
+    out = {
+        "conjnli_adversarial": list(read_extra_tsv(f"{extra}/conjnli/adversarial_train_15k.tsv")),
+        "monotonicity": list(read_extra_tsv(f"{extra}/curriculum/monotonicity_infer/train.tsv", ("entailment", "neutral"))),
+        "mnli_sni": [r for r in read_extra_tsv(f"{extra}/mnli_sni/train.tsv") if (r[0], r[1]) not in seen],
+    }
+    for task in CURRICULUM_TRAIN:
+        out["curriculum_" + task] = list(read_extra_tsv(f"{extra}/curriculum/{task}/train.tsv"))
+    return out
+
+
+def extra_evaluate_sources(extra):
+    """Evaluation-only files of extra/: 3-way where the file is 3-way; 2-way files keep 'not_entailment'."""
+    out = {"conj_dev": list(read_extra_tsv(f"{extra}/conjnli/conj_dev.tsv"))}
+    two_way = ("entailment", "not_entailment")
+    out["paraphrase_val"] = (list(read_extra_tsv(f"{extra}/curriculum/syntactic_variation/val.tsv", two_way))
+                             + list(read_extra_tsv(f"{extra}/curriculum/syntactic_variation/val_not_entailment.tsv", two_way)))
+    out["paraphrase_train"] = (list(read_extra_tsv(f"{extra}/curriculum/syntactic_variation/train.tsv", two_way))
+                               + list(read_extra_tsv(f"{extra}/curriculum/syntactic_variation/train_not_entailment.tsv", two_way)))
+    return out

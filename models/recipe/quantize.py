@@ -37,6 +37,35 @@ def quantize_rows(table):
     return q.T.copy(), scale, zero
 
 
+def rows_matmul(x, base):
+    """x [..., K] @ W [K, N] with int8 arithmetic and one activation scale per token row: absmax / 127, stored
+    around zero point 128 in uint8 so the u8 x u8 integer kernels apply. Each row's scale depends only on that
+    row, so a pair scores the same alone or beside any other pairs. Integer product, then the column scale,
+    then the row scale (two plain Muls: a fused kernel that assumes one scale per tensor cannot misread them)."""
+    return [
+        helper.make_node("Abs", [x], [base + "_abs"]),
+        helper.make_node("ReduceMax", [base + "_abs"], [base + "_absmax"], axes=[-1], keepdims=1),
+        helper.make_node("Max", [base + "_absmax", "_rows_eps"], [base + "_absmax_safe"]),
+        helper.make_node("Div", [base + "_absmax_safe", "_rows_127"], [base + "_xscale"]),
+        helper.make_node("Div", [x, base + "_xscale"], [base + "_xs"]),
+        helper.make_node("Round", [base + "_xs"], [base + "_xr"]),
+        helper.make_node("Add", [base + "_xr", "_rows_128"], [base + "_xshift"]),
+        helper.make_node("Cast", [base + "_xshift"], [base + "_xq"], to=TensorProto.UINT8),
+        helper.make_node("MatMulInteger", [base + "_xq", base + "_Wq", "_rows_zero", base + "_Wzero"], [base + "_int"]),
+        helper.make_node("Cast", [base + "_int"], [base + "_float"], to=TensorProto.FLOAT),
+        helper.make_node("Mul", [base + "_float", base + "_Wscale"], [base + "_colscaled"]),
+        helper.make_node("Mul", [base + "_colscaled", base + "_xscale"], [base]),
+    ]
+
+
+ROWS_CONSTANTS = [
+    numpy_helper.from_array(np.array(1e-12, dtype=np.float32), "_rows_eps"),
+    numpy_helper.from_array(np.array(127.0, dtype=np.float32), "_rows_127"),
+    numpy_helper.from_array(np.array(128.0, dtype=np.float32), "_rows_128"),
+    numpy_helper.from_array(np.array(128, dtype=np.uint8), "_rows_zero"),
+]
+
+
 def quantize(fp32_path, int8_path, embedding_name, mode="weights"):
     model = onnx.load(fp32_path)
     graph = model.graph
@@ -61,6 +90,8 @@ def quantize(fp32_path, int8_path, embedding_name, mode="weights"):
                                      [base + "_W"], axis=1),
                     helper.make_node("MatMul", [x, base + "_W"], [base]),
                 ]
+                if mode == "rows":
+                nodes += rows_matmul(x, base)
                 continue
             nodes += [
                 helper.make_node("DynamicQuantizeLinear", [x], [base + "_xq", base + "_xscale", base + "_xzero"]),
@@ -93,6 +124,8 @@ def quantize(fp32_path, int8_path, embedding_name, mode="weights"):
             new_inits.append(numpy_helper.from_array(np.array([-1], dtype=np.int64), "_axis_last"))
             continue
         nodes.append(node)
+    if mode == "rows":
+        new_inits += ROWS_CONSTANTS
     kept = [i for i in graph.initializer if i.name not in dropped]
     del graph.node[:]
     graph.node.extend(nodes)

@@ -12,13 +12,24 @@ import time
 
 import torch
 
-from augment import generate
+from augment import generate, generate_negation_crossings, generate_restatements, held_out_added_detail
 from bert import PairClassifier, load_base_weights
 from negation_eval import negation_pairs
-from nli_files import LABELS, evaluate_sources, train_sources
+from nli_files import LABELS, evaluate_sources, extra_evaluate_sources, extra_train_sources, train_sources
+from tree_pairs import tree_link_health
 from wordpiece import WordPiece
 
-QUOTAS = dict(negation=4200, cohyponym=5000, antonym=1500, hypernym=2000, number=1500, colour=1500, swapped=4000)
+QUOTAS = dict(negation=4200, cohyponym=4000, antonym=1500, hypernym=2000, number=1500, colour=1500, swapped=4000)
+# Restatement shapes (augment.generate_restatements), taught beside the contradiction sources in one run.
+RESTATEMENT_QUOTAS = dict(identity=1500, conjunct_part=3000, conjunct_added=2000, shorter_reversed=2500,
+                          modifier_dropped=2000, modifier_added=1500, synonym=2500, state_antonym=2000)
+# A 'not' on one side that does not make a contradiction (augment.generate_negation_crossings).
+CROSSING_QUOTAS = dict(ruled_out=3000, left_open=2000, negated_clause_part=2000, negated_clause_added=1500,
+                       negation_respelled=1500)
+# Caps on the larger extra/ files: the templated curriculum probes and the monotonicity pairs would
+# otherwise outweigh the natural sentences.
+EXTRA_CAPS = dict(monotonicity=8000, **{"curriculum_" + t: 1500 for t in
+                  ("boolean", "comparative", "conditional", "counting", "negation", "quantifier")})
 
 
 def batches(encoded, batch_size, rng, bucket=100):
@@ -62,21 +73,38 @@ def evaluate(model, tokenizer, pairs, max_len, batch_size=64):
         for gold, pred in zip(labels.tolist(), predicted.tolist()):
             confusion[gold][pred] += 1
     model.train()
+    return confusion
+
+
+def figures(confusion):
     total = sum(map(sum, confusion))
-    accuracy = sum(confusion[i][i] for i in range(3)) / max(total, 1)
-    contradiction_recall = confusion[2][2] / max(sum(confusion[2]), 1)
-    return accuracy, contradiction_recall
+    out = {"accuracy": round(sum(confusion[i][i] for i in range(3)) / max(total, 1), 4)}
+    for i, name in enumerate(LABELS):
+        if sum(confusion[i]):
+            out[name + "_recall"] = round(confusion[i][i] / sum(confusion[i]), 4)
+    # Share of pairs whose gold is not contradiction that the model reads as contradiction.
+    not_c = sum(confusion[0]) + sum(confusion[1])
+    if not_c:
+        out["false_contradiction"] = round((confusion[0][2] + confusion[1][2]) / not_c, 4)
+    return out
 
 
-def monitor_sets(data, seed):
+def monitor_sets(data, seed, extra=None):
     rng = random.Random(seed)
     ev = evaluate_sources(data)
-    return {
+    out = {
         "mnli_matched": rng.sample(ev["mnli_matched"], 1000),
         "snli_dev": rng.sample(ev["snli_dev"], 1000),
         "breaking_nli": rng.sample(ev["breaking_nli"], 500),
+        "breaking_nli_entailment": rng.sample([r for r in ev["breaking_nli"] if r[2] == "entailment"], 300),
         "negation_held_out": negation_pairs([p for p, _, _ in ev["snli_dev"]], 300, seed),
+        "added_detail_held_out": held_out_added_detail(ev["snli_dev"] + ev["mnli_matched"], seed, 400),
     }
+    if extra:
+        # 2-way paraphrase pairs: only the false-contradiction rate means anything; 'not_entailment' is read as neutral.
+        para = extra_evaluate_sources(extra)["paraphrase_val"]
+        out["paraphrase"] = [(p, h, "entailment" if l == "entailment" else "neutral") for p, h, l in para]
+    return out
 
 
 def run_log(out_dir, file_name):
@@ -107,9 +135,11 @@ def train_step(model, optimizer, schedule, loss_fn, encoded, index):
     return loss.item()
 
 
-def sample_scores(model, tokenizer, monitors, max_len):
-    return {name: {"accuracy": round(a, 4), "contradiction_recall": round(r, 4)}
-            for name, (a, r) in ((n, evaluate(model, tokenizer, rows, max_len)) for n, rows in monitors.items())}
+def sample_scores(model, tokenizer, monitors, max_len, trees=None):
+    out = {name: figures(evaluate(model, tokenizer, rows, max_len)) for name, rows in monitors.items()}
+    if trees:
+        out["tree_links"] = tree_link_health(model, tokenizer, trees, max_len)
+    return out
 
 
 def main():
@@ -124,6 +154,10 @@ def main():
     ap.add_argument("--seed", type=int, default=13)
     ap.add_argument("--drop", nargs="*", default=[], help="augmentation sources to leave out (ablation)")
     ap.add_argument("--threads", type=int, default=2)
+    ap.add_argument("--extra", help="the extra/ folder of more open pairs (its SOURCES.md 'train' files)")
+    ap.add_argument("--holdout", type=int, default=3000, help="labelled pairs kept out of training for calibration")
+    ap.add_argument("--trees", help="a tree recording (evaluation only) whose link health is printed per epoch")
+    ap.add_argument("--checkpoints", type=int, default=2, help="checkpoints per epoch")
     args = ap.parse_args()
 
     torch.manual_seed(args.seed)
@@ -134,10 +168,29 @@ def main():
 
     tokenizer = WordPiece(os.path.join(args.base, "vocab.txt"))
     train = train_sources(args.data)
-    pairs = [(p, h, l, name) for name, rows in train.items() for p, h, l in rows]
+    if args.extra:
+        extra = extra_train_sources(args.extra, train["taxinli_rest"])
+        for name, cap in EXTRA_CAPS.items():
+            rng.shuffle(extra[name])
+            extra[name] = extra[name][:cap]
+        train.update({k: v for k, v in extra.items() if k not in args.drop})
+    # The calibration split: labelled pairs drawn from every human-written source, never trained on.
+    labelled = [(p, h, l, name) for name, rows in train.items() for p, h, l in rows]
+    rng.shuffle(labelled)
+    held, pairs = labelled[: args.holdout], labelled[args.holdout:]
+    held_keys = {(p, h) for p, h, _, _ in held}
+    with open(os.path.join(args.out, "calibration-pairs.jsonl"), "w", encoding="utf-8") as f:
+        for p, h, l, name in held:
+            f.write(json.dumps({"premise": p, "hypothesis": h, "label": l, "source": name}) + "\n")
     quotas = {k: v for k, v in QUOTAS.items() if k not in args.drop}
     generated = generate(train, args.seed, {k: quotas.get(k, 0) for k in QUOTAS})
     pairs += [g for g in generated if g[3] in quotas]
+    if args.extra:
+        restatement_quotas = {k: (0 if k in args.drop else v) for k, v in RESTATEMENT_QUOTAS.items()}
+        pairs += [g for g in generate_restatements(train, args.seed, restatement_quotas) if g[3] not in args.drop]
+        crossing_quotas = {k: (0 if k in args.drop else v) for k, v in CROSSING_QUOTAS.items()}
+        pairs += [g for g in generate_negation_crossings(train, args.seed, crossing_quotas) if g[3] not in args.drop]
+    pairs = [x for x in pairs if (x[0], x[1]) not in held_keys]
     counts = collections.Counter(name for *_, name in pairs)
     note(event="data", counts=counts, total=len(pairs), drop=args.drop, seed=args.seed)
     with open(os.path.join(args.out, "train-pairs.jsonl"), "w", encoding="utf-8") as f:
@@ -145,7 +198,11 @@ def main():
             f.write(json.dumps({"premise": p, "hypothesis": h, "label": l, "source": name}) + "\n")
 
     encoded = [(*tokenizer.encode_pair(p, h, args.max_len), LABELS.index(l)) for p, h, l, _ in pairs]
-    monitors = monitor_sets(args.data, args.seed)
+    monitors = monitor_sets(args.data, args.seed, args.extra)
+    trees = None
+    if args.trees:
+        from tree_pairs import read_tree_pairs
+        trees = read_tree_pairs(args.trees, sample=400, seed=args.seed)
 
     model = load_base_weights(PairClassifier(), os.path.join(args.base, "model.onnx"))
     model.train()
@@ -167,6 +224,7 @@ def main():
 
     step = 0
     started = time.time()
+    every = max(steps_per_epoch // max(args.checkpoints, 1), 1)
     for epoch in range(1, args.epochs + 1):
         running = 0.0
         for index in batches(encoded, args.batch, rng):
@@ -176,8 +234,12 @@ def main():
                 note(event="step", epoch=epoch, step=step, of=total_steps, loss=round(running / 25, 4),
                      lr=schedule.get_last_lr()[0], elapsed_s=round(time.time() - started))
                 running = 0.0
+            if step % every == 0 and step % steps_per_epoch != 0:
+                name = f"step{step}.pt"
+                torch.save(model.state_dict(), os.path.join(args.out, name))
+                note(event="checkpoint", file=name, **sample_scores(model, tokenizer, monitors, args.max_len, trees))
         torch.save(model.state_dict(), os.path.join(args.out, f"epoch{epoch}.pt"))
-        note(event="epoch", epoch=epoch, **sample_scores(model, tokenizer, monitors, args.max_len))
+        note(event="epoch", epoch=epoch, file=f"epoch{epoch}.pt", **sample_scores(model, tokenizer, monitors, args.max_len, trees))
     torch.save(model.state_dict(), os.path.join(args.out, "final.pt"))
     note(event="done", elapsed_s=round(time.time() - started))
 

@@ -79,7 +79,7 @@ public sealed class NliModel : IDisposable
             var inputs = ModelInputs.Of(session.InputMetadata, modelFile);
             PairEncoders.CheckSegments(encoder, inputs, card, modelFile);
             var outputName = CheckOutput(session, card, modelFile);
-            var labels = LabelOrder.From(card.Labels, card.SourceFile);
+            var labels = LabelOrder.From(card.Labels, card.SourceFile, card.Temperature);
             return new NliModel(card, modelFile, hashing.GetAwaiter().GetResult(), session, encoder, inputs, outputName, labels);
         }
         catch
@@ -103,6 +103,11 @@ public sealed class NliModel : IDisposable
     }
 
     internal EncodedPair Encode(SentencePair pair) => encoder.Encode(pair.Premise, pair.Hypothesis);
+
+    /// <summary>One side's token ids, for callers that frame many pairs from the same statements.</summary>
+    internal IReadOnlyList<int> Tokenize(string text) => encoder.Tokenize(text);
+
+    internal EncodedPair Frame(IReadOnlyList<int> premise, IReadOnlyList<int> hypothesis) => encoder.Frame(premise, hypothesis);
 
     internal NliTensorBatch CreateBatch(IReadOnlyList<EncodedPair> pairs) => NliTensorBatch.Create(pairs, inputs, encoder.PaddingId);
 

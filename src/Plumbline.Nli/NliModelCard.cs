@@ -14,6 +14,8 @@ namespace Plumbline.Nli;
 /// <param name="Labels">The model's output classes, in output order.</param>
 /// <param name="OutputName">Graph output holding the logits; null means the first output.</param>
 /// <param name="SourceFile">The file these facts were read from.</param>
+/// <param name="Temperature">Logits are divided by this before the softmax (temperature scaling fitted on held-out
+/// pairs, so the probabilities mean what they say); 1 when the model states none.</param>
 /// <param name="VocabularySize">Rows of the model's token embedding table (config.json vocab_size), when known.</param>
 /// <param name="TypeVocabularySize">Rows of its segment embedding table (config.json type_vocab_size), when known.</param>
 /// <param name="PaddingId">The padding token id the model was trained with (config.json pad_token_id), when known.</param>
@@ -28,6 +30,7 @@ public sealed record NliModelCard(
     IReadOnlyList<string> Labels,
     string? OutputName,
     string SourceFile,
+    double Temperature = 1.0,
     long? VocabularySize = null,
     long? TypeVocabularySize = null,
     long? PaddingId = null);

@@ -67,6 +67,7 @@ internal static partial class NliModelCardReader
             labels,
             card.String("output"),
             card.File,
+            card.Number("temperature") ?? 1.0,
             config?.Integer("vocab_size"),
             config?.Integer("type_vocab_size"),
             config?.Integer("pad_token_id"));
@@ -113,9 +114,9 @@ internal static partial class NliModelCardReader
             labels,
             null,
             config.File,
-            config.Integer("vocab_size"),
-            config.Integer("type_vocab_size"),
-            config.Integer("pad_token_id"));
+            VocabularySize: config.Integer("vocab_size"),
+            TypeVocabularySize: config.Integer("type_vocab_size"),
+            PaddingId: config.Integer("pad_token_id"));
     }
 
     /// <summary>

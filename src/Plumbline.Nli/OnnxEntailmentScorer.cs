@@ -1,4 +1,3 @@
-using System.Collections.Concurrent;
 using Plumbline.Core.Entailment;
 using Plumbline.Nli.Tokenization;
 
@@ -13,7 +12,7 @@ public sealed class OnnxEntailmentScorer : IEntailmentScorer, IDisposable
     private readonly NliModel model;
     private readonly bool ownsModel;
     private readonly int batchSize;
-    private readonly ConcurrentDictionary<SentencePair, ScoredPair>? cache;
+    private readonly PairScoreCache? cache;
     private int truncatedPairs;
     private long cacheHits;
 
@@ -29,7 +28,8 @@ public sealed class OnnxEntailmentScorer : IEntailmentScorer, IDisposable
         this.model = model;
         this.ownsModel = ownsModel;
         batchSize = options.BatchSize;
-        cache = options.Cache ? new ConcurrentDictionary<SentencePair, ScoredPair>() : null;
+        ArgumentOutOfRangeException.ThrowIfLessThan(options.CacheCapacity, 2, nameof(options));
+        cache = options.Cache ? new PairScoreCache(options.CacheCapacity) : null;
     }
 
     public NliModel Model => model;
@@ -78,7 +78,7 @@ public sealed class OnnxEntailmentScorer : IEntailmentScorer, IDisposable
         var waiting = new Dictionary<SentencePair, List<int>>();
         for (var i = 0; i < pairs.Count; i++)
         {
-            if (cache is not null && cache.TryGetValue(pairs[i], out var known))
+            if (cache is not null && cache.TryGet(pairs[i], out var known))
             {
                 results[i] = known;
                 Interlocked.Increment(ref cacheHits);
@@ -94,7 +94,7 @@ public sealed class OnnxEntailmentScorer : IEntailmentScorer, IDisposable
         }
 
         var distinct = waiting.Keys.ToArray();
-        var encoded = distinct.Select(model.Encode).ToArray();
+        var encoded = Encode(distinct);
         foreach (var batch in LengthBuckets.Plan(encoded, batchSize))
         {
             cancellationToken.ThrowIfCancellationRequested();
@@ -113,6 +113,25 @@ public sealed class OnnxEntailmentScorer : IEntailmentScorer, IDisposable
         return results;
     }
 
+    // The pairs of one tree are every ordered pair of a few statements: each statement is tokenised once here and
+    // its ids framed into every pair it takes part in.
+    private EncodedPair[] Encode(SentencePair[] distinct)
+    {
+        var sides = new Dictionary<string, IReadOnlyList<int>>(StringComparer.Ordinal);
+        IReadOnlyList<int> Side(string text)
+        {
+            if (!sides.TryGetValue(text, out var ids))
+            {
+                ids = model.Tokenize(text);
+                sides.Add(text, ids);
+            }
+
+            return ids;
+        }
+
+        return distinct.Select(pair => model.Frame(Side(pair.Premise), Side(pair.Hypothesis))).ToArray();
+    }
+
     private float[] RunBatch(EncodedPair[] batch)
     {
         using var tensors = model.CreateBatch(batch);
@@ -123,9 +142,13 @@ public sealed class OnnxEntailmentScorer : IEntailmentScorer, IDisposable
     private ScoredPair Remember(SentencePair pair, float[] logits, bool truncated)
     {
         var scored = new ScoredPair(model.Labels.ToScores(logits), truncated, logits);
-        if (cache is not null && !cache.TryAdd(pair, scored))
+        if (cache is not null)
         {
-            return cache[pair];
+            var stored = cache.GetOrAdd(pair, scored, out var added);
+            if (!added)
+            {
+                return stored;
+            }
         }
 
         if (truncated)

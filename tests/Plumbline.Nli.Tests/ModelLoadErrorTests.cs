@@ -108,6 +108,18 @@ public sealed class ModelLoadErrorTests
         Assert.Contains("'id2label'", error.Message, StringComparison.Ordinal);
     }
 
+    [Fact]
+    public void Load_CardWithNegativeTemperature_NamesCard()
+    {
+        using var directory = new TempModelDirectory().Link("vocab.txt").Link("model.onnx")
+            .Write("nli-model.json", """{ "labels": ["entailment", "neutral", "contradiction"], "temperature": -1.5 }""");
+
+        var error = Assert.Throws<NliModelException>(() => NliModel.Load(directory.Path));
+
+        AssertNames(error, directory.File("nli-model.json"));
+        Assert.Contains("temperature", error.Message, StringComparison.Ordinal);
+    }
+
     private static void AssertNames(NliModelException error, string file)
     {
         Assert.Equal(file, error.FilePath);

@@ -13,6 +13,7 @@ namespace Plumbline.Benchmarks.Trees;
 /// <param name="OverturnedRight">Of those, the ones where the coherent answer equals gold.</param>
 /// <param name="Contested">Claims whose margin was at or below the threshold.</param>
 /// <param name="MeanNormalisedMargin">Mean normalised margin of judged claims.</param>
+/// <param name="CallsPerClaim">Model requests per claim (what a live model would be asked).</param>
 internal sealed record CellFigures(
     int Claims,
     int Failed,
@@ -22,7 +23,8 @@ internal sealed record CellFigures(
     int Overturned,
     int OverturnedRight,
     int Contested,
-    double MeanNormalisedMargin)
+    double MeanNormalisedMargin,
+    double CallsPerClaim)
 {
     /// <summary>Coherent minus plain direct accuracy, in percentage points.</summary>
     public double GainPoints => 100 * (Coherent.Value - Direct.Value);
@@ -40,6 +42,7 @@ internal sealed record CellFigures(
             overturned.Count,
             overturned.Count(v => v.Answer == v.Claim.Gold),
             figures.Contested,
-            figures.MeanNormalisedMargin);
+            figures.MeanNormalisedMargin,
+            verdicts.Count == 0 ? 0 : (double)figures.ModelCalls / verdicts.Count);
     }
 }

@@ -19,7 +19,7 @@ internal sealed record GridCell(CoherenceOptions Options)
         string.Create(CultureInfo.InvariantCulture,
             $"{Options.IntegrityGap,-4:0.##} {Spell(Options.BeliefForm),-21} {Options.LinkFloor,-5:0.##} {Spell(Options.Conflicts),-9} {Spell(Options.Contradictions),-14} {(Options.ClaimBelief ? "on" : "off"),-5} {Spell(Options.NliText),-19}");
 
-    /// <summary>Settings outside the grid's six dimensions, when they differ from the engine's defaults.</summary>
+    /// <summary>Settings outside the grid's seven dimensions, when they differ from the engine's defaults.</summary>
     public string Extras
     {
         get
@@ -79,6 +79,33 @@ internal sealed record GridCell(CoherenceOptions Options)
 
         return cells;
     }
+
+    /// <summary>
+    /// The plain method the rule starts from: the flip test alone, the ratio belief, every link, conflicts kept,
+    /// a clause per contradiction direction, no claim belief, every statement by its own text.
+    /// </summary>
+    public static CoherenceOptions PlainMethod { get; } = CoherenceOptions.Default with
+    {
+        IntegrityGap = 0.0,
+        BeliefForm = BeliefForm.Ratio,
+        LinkFloor = 0.0,
+        Conflicts = ConflictRule.Keep,
+        Contradictions = ContradictionCount.EachDirection,
+        ClaimBelief = false,
+        NliText = NliText.Statement,
+    };
+
+    /// <summary>The seven grid settings, each as its option's name and the word of its value.</summary>
+    public static IReadOnlyList<(string Name, Func<CoherenceOptions, string> Level)> Dimensions { get; } =
+    [
+        ("--integrity-gap", o => o.IntegrityGap.ToString("0.##", CultureInfo.InvariantCulture)),
+        ("--belief-form", o => Spell(o.BeliefForm)),
+        ("--link-floor", o => o.LinkFloor.ToString("0.##", CultureInfo.InvariantCulture)),
+        ("--conflicts", o => Spell(o.Conflicts)),
+        ("--contradictions", o => Spell(o.Contradictions)),
+        ("--claim-belief", o => o.ClaimBelief ? "on" : "off"),
+        ("--nli-text", o => Spell(o.NliText)),
+    ];
 
     /// <summary>The engine's defaults, then each remaining option changed alone from them.</summary>
     public static IReadOnlyList<GridCell> Variations(CoherenceOptions start) =>

@@ -9,6 +9,7 @@ using Plumbline.Core.Entailment;
 using Plumbline.Core.Language;
 using Plumbline.Core.MaxSat;
 using Plumbline.Core.Runs;
+using Plumbline.Core.Trees;
 using Plumbline.Models.Recording;
 using Plumbline.Nli;
 using Plumbline.Solver;
@@ -83,8 +84,8 @@ internal static class TreeGridBenchmark
             var solver = new ExactSmallSolver();
             var scorer = new CachedScorer(cache, model.Describe, planning: false);
             output.WriteLine();
-            output.WriteLine($"{"",2} {GridCell.Header} | {"direct",-6} {"paired",-6} {"coherent  [Wilson 95%]",-23} {"gain",6} | {"overturned",-10} {"right",-11} | {"contested",9} {"norm. margin",12} | other settings");
-            var results = new List<(GridCell Cell, CellFigures Figures)>();
+            output.WriteLine($"{"",2} {GridCell.Header} | {"direct",-6} {"paired",-6} {"coherent  [Wilson 95%]",-23} {"gain",6} | {"overturned",-10} {"right",-11} | {"contested",9} {"norm. margin",12} {"calls",5} | other settings");
+            var results = new List<(GridCell Cell, CellFigures Figures, bool[] Right)>();
             IReadOnlyList<Verdict>? healthVerdicts = null;
             foreach (var cell in cells.Append(health).Distinct())
             {
@@ -101,10 +102,10 @@ internal static class TreeGridBenchmark
                     continue;
                 }
 
-                results.Add((cell, figures));
+                results.Add((cell, figures, [.. verdicts.Select(v => v.Answer == v.Claim.Gold)]));
                 var mark = cell.Options == defaults ? "*" : "";
                 output.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                    $"{mark,2} {cell.Columns} | {Percent(figures.Direct),-6} {Percent(figures.PairedDirect),-6} {Percent(figures.Coherent)} [{Percent(figures.Coherent.Low)}-{Percent(figures.Coherent.High)}]{"",4} {figures.GainPoints,6:+0.0;-0.0;0.0} | {figures.Overturned,4} {Share(figures.Overturned, figures.Claims),-5} {figures.OverturnedRight,4} {Share(figures.OverturnedRight, figures.Overturned),-6} | {figures.Contested,9} {figures.MeanNormalisedMargin,12:0.0000} | {cell.Extras} ({watch.Elapsed.TotalSeconds:0.0} s{(figures.Failed > 0 ? $", {figures.Failed} failed" : "")})"));
+                    $"{mark,2} {cell.Columns} | {Percent(figures.Direct),-6} {Percent(figures.PairedDirect),-6} {Percent(figures.Coherent)} [{Percent(figures.Coherent.Low)}-{Percent(figures.Coherent.High)}]{"",4} {figures.GainPoints,6:+0.0;-0.0;0.0} | {figures.Overturned,4} {Share(figures.Overturned, figures.Claims),-5} {figures.OverturnedRight,4} {Share(figures.OverturnedRight, figures.Overturned),-6} | {figures.Contested,9} {figures.MeanNormalisedMargin,12:0.0000} {figures.CallsPerClaim,5:0.0} | {cell.Extras} ({watch.Elapsed.TotalSeconds:0.0} s{(figures.Failed > 0 ? $", {figures.Failed} failed" : "")})"));
             }
 
             PrintSummary(output, results, defaults);
@@ -185,8 +186,20 @@ internal static class TreeGridBenchmark
             $"scored {missing.Count} pairs in {watch.Elapsed.TotalMinutes:0.0} min ({missing.Count / watch.Elapsed.TotalSeconds:0} pairs/s)"));
     }
 
-    /// <summary>Per setting, the mean coherent accuracy over the full grid's cells that use it, and the best cell.</summary>
-    private static void PrintSummary(TextWriter output, List<(GridCell Cell, CellFigures Figures)> results, CoherenceOptions defaults)
+    /// <summary>Least gain, in points of mean coherent accuracy over the grid, for the rule to move a setting away from the plain method.</summary>
+    internal const double RuleMinimumGainPoints = 0.2;
+
+    /// <summary>Largest McNemar p at which the rule's cell replaces the plain method's settings.</summary>
+    internal const double RuleMaximumP = 0.05;
+
+    /// <summary>
+    /// Per setting, the mean coherent accuracy over the full grid's cells that use it; the best cell; and the
+    /// cell the documented rule picks: each setting moves away from the plain method's
+    /// (<see cref="GridCell.PlainMethod"/>) only to the level with the highest mean, and only when that mean is
+    /// at least <see cref="RuleMinimumGainPoints"/> above the plain level's; the picked cell is adopted when it
+    /// beats the plain method's cell claim by claim with McNemar p below <see cref="RuleMaximumP"/>.
+    /// </summary>
+    private static void PrintSummary(TextWriter output, List<(GridCell Cell, CellFigures Figures, bool[] Right)> results, CoherenceOptions defaults)
     {
         var full = results.Where(r => r.Cell.Extras.Length == 0).ToList();
         if (full.Count <= 1)
@@ -195,26 +208,62 @@ internal static class TreeGridBenchmark
         }
 
         output.WriteLine();
-        output.WriteLine($"mean coherent accuracy per setting over the {full.Count} cells that vary only the six grid settings:");
-        void Marginal<T>(string name, Func<CoherenceOptions, T> setting)
+        output.WriteLine($"mean coherent accuracy per setting over the {full.Count} cells that vary only the seven grid settings (rule: move from the plain method's level only for a gain of {RuleMinimumGainPoints} points or more):");
+        var plain = GridCell.PlainMethod;
+        var picked = new Dictionary<string, string>();
+        foreach (var (name, level) in GridCell.Dimensions)
         {
-            var levels = full.GroupBy(r => setting(r.Cell.Options))
-                .Select(g => string.Create(CultureInfo.InvariantCulture, $"{g.Key}: {100 * g.Average(r => r.Figures.Coherent.Value):0.00}%"));
-            output.WriteLine($"  {name,-22} {string.Join(" | ", levels)}");
+            var means = full.GroupBy(r => level(r.Cell.Options)).ToDictionary(g => g.Key, g => 100 * g.Average(r => r.Figures.Coherent.Value));
+            var plainLevel = level(plain);
+            var best = means.MaxBy(m => m.Value);
+            picked[name] = best.Value - means[plainLevel] >= RuleMinimumGainPoints ? best.Key : plainLevel;
+            var levels = means.Select(m => string.Create(CultureInfo.InvariantCulture, $"{m.Key}: {m.Value:0.00}%"));
+            output.WriteLine($"  {name,-18} {string.Join(" | ", levels)}  -> {picked[name]}");
         }
 
-        Marginal("integrity gap", o => o.IntegrityGap);
-        Marginal("belief form", o => o.BeliefForm);
-        Marginal("link floor", o => o.LinkFloor);
-        Marginal("conflicts", o => o.Conflicts);
-        Marginal("contradictions", o => o.Contradictions);
-        Marginal("claim belief", o => o.ClaimBelief);
-        Marginal("nli text", o => o.NliText);
+        var bestCell = full.MaxBy(r => r.Figures.Coherent.Value);
+        var plainCell = full.First(r => GridCell.Dimensions.All(d => d.Level(r.Cell.Options) == d.Level(plain)));
+        var ruleCell = full.First(r => GridCell.Dimensions.All(d => d.Level(r.Cell.Options) == picked[d.Name]));
+        var defaultsCell = results.First(r => r.Cell.Options == defaults);
+        Compare(output, "best cell", bestCell, plainCell);
+        Compare(output, "the rule's cell", ruleCell, plainCell);
+        Compare(output, "the defaults", defaultsCell, plainCell);
+        var adopt = McNemar(Discordant(ruleCell.Right, plainCell.Right), Discordant(plainCell.Right, ruleCell.Right)) < RuleMaximumP;
+        output.WriteLine($"rule's verdict: {(adopt ? "adopt the rule's cell" : "keep the plain method's settings")}: {(adopt ? ruleCell : plainCell).Cell.Columns.TrimEnd()}");
+    }
 
-        var best = full.MaxBy(r => r.Figures.Coherent.Value);
-        var atDefaults = results.First(r => r.Cell.Options == defaults).Figures;
+    private static void Compare(TextWriter output, string name, (GridCell Cell, CellFigures Figures, bool[] Right) cell, (GridCell Cell, CellFigures Figures, bool[] Right) plain)
+    {
+        var (onlyThis, onlyPlain) = (Discordant(cell.Right, plain.Right), Discordant(plain.Right, cell.Right));
         output.WriteLine(string.Create(CultureInfo.InvariantCulture,
-            $"best cell: {best.Cell.Columns} coherent {Percent(best.Figures.Coherent)}, gain {best.Figures.GainPoints:+0.0;-0.0} points; defaults: coherent {Percent(atDefaults.Coherent)}, gain {atDefaults.GainPoints:+0.0;-0.0} points"));
+            $"{name + ":",-16} {cell.Cell.Columns.TrimEnd()}  coherent {Percent(cell.Figures.Coherent)} [{Percent(cell.Figures.Coherent.Low)}-{Percent(cell.Figures.Coherent.High)}], gain {cell.Figures.GainPoints:+0.0;-0.0;0.0} points; against the plain method {onlyThis} claims right only here, {onlyPlain} only there, McNemar p = {McNemar(onlyThis, onlyPlain):0.000}"));
+    }
+
+    /// <summary>Claims <paramref name="first"/> gets right and <paramref name="second"/> does not.</summary>
+    private static int Discordant(bool[] first, bool[] second) => first.Zip(second).Count(p => p.First && !p.Second);
+
+    /// <summary>
+    /// Two-sided p of McNemar's test with continuity correction (common practice) for b and c discordant pairs:
+    /// z = (|b - c| - 1) / sqrt(b + c) against the standard normal.
+    /// </summary>
+    internal static double McNemar(int b, int c)
+    {
+        if (b + c == 0)
+        {
+            return 1.0;
+        }
+
+        var z = Math.Max(0, Math.Abs(b - c) - 1) / Math.Sqrt(b + c);
+        return Math.Min(1.0, 2 * (1 - StandardNormal(z)));
+    }
+
+    /// <summary>Φ(z) through the error function approximation 7.1.26 of Abramowitz and Stegun (absolute error below 1.5e-7).</summary>
+    private static double StandardNormal(double z)
+    {
+        var x = Math.Abs(z) / Math.Sqrt(2);
+        var t = 1 / (1 + 0.3275911 * x);
+        var erf = 1 - (((((1.061405429 * t - 1.453152027) * t) + 1.421413741) * t - 0.284496736) * t + 0.254829592) * t * Math.Exp(-x * x);
+        return z >= 0 ? 0.5 * (1 + erf) : 0.5 * (1 - erf);
     }
 
     /// <summary>Solves every default-settings problem with CP-SAT too and counts the optima that agree.</summary>

@@ -14,26 +14,28 @@ public static class NliEvaluator
         timeProvider ??= TimeProvider.System;
         var sentencePairs = pairs.Select(pair => pair.Pair).ToArray();
         var started = timeProvider.GetTimestamp();
-        IReadOnlyList<EntailmentKind> predicted;
+        IReadOnlyList<EntailmentScores> scores;
         var truncated = 0;
         if (scorer is OnnxEntailmentScorer onnx)
         {
             var details = await onnx.ScoreWithDetailsAsync(sentencePairs, cancellationToken);
-            predicted = details.Select(detail => detail.Scores.Kind).ToArray();
+            scores = details.Select(detail => detail.Scores).ToArray();
             truncated = details.Count(detail => detail.Truncated);
         }
         else
         {
-            predicted = (await scorer.ScoreAsync(sentencePairs, cancellationToken)).Select(scores => scores.Kind).ToArray();
+            scores = await scorer.ScoreAsync(sentencePairs, cancellationToken);
         }
 
         var elapsed = timeProvider.GetElapsedTime(started);
-        if (predicted.Count != pairs.Count)
+        if (scores.Count != pairs.Count)
         {
-            throw new InvalidOperationException($"scorer returned {predicted.Count} scores for {pairs.Count} pairs");
+            throw new InvalidOperationException($"scorer returned {scores.Count} scores for {pairs.Count} pairs");
         }
 
-        var confusion = NliConfusionMatrix.From(pairs.Select((pair, index) => (pair.Gold, predicted[index])));
-        return new NliEvaluation(scorer.Describe, confusion, elapsed, truncated);
+        var confusion = NliConfusionMatrix.From(pairs.Select((pair, index) => (pair.Gold, scores[index].Kind)));
+        var calibration = CalibrationBins.ExpectedCalibrationError(
+            pairs.Select((pair, index) => (scores[index].ProbabilityOf(scores[index].Kind), scores[index].Kind == pair.Gold)).ToArray());
+        return new NliEvaluation(scorer.Describe, confusion, elapsed, truncated, calibration);
     }
 }

@@ -48,11 +48,11 @@ internal sealed partial class ByteLevelBpePairEncoder : IPairEncoder
         throw new NliModelException(vocabularyFile, "vocabulary has neither <s> and </s> nor [CLS] and [SEP] to frame a sentence pair");
     }
 
-    public EncodedPair Encode(string premise, string hypothesis) =>
-        layout.Frame(Tokens(premise), Tokens(hypothesis), maxLength);
-
-    private IReadOnlyList<int> Tokens(string text) =>
+    public IReadOnlyList<int> Tokenize(string text) =>
         tokenizer.EncodeToIds(lowerCase ? text.ToLowerInvariant() : text);
+
+    public EncodedPair Frame(IReadOnlyList<int> premise, IReadOnlyList<int> hypothesis) =>
+        layout.Frame(premise, hypothesis, maxLength);
 
     private static BpeTokenizer Open(string vocabularyFile, string mergesFile)
     {

@@ -82,10 +82,10 @@ internal sealed class SentencePiecePairEncoder : IPairEncoder
         throw new NliModelException(modelFile, "has neither [CLS] and [SEP] nor <s> and </s> pieces to frame a sentence pair");
     }
 
-    public EncodedPair Encode(string premise, string hypothesis) =>
-        layout.Frame(Ids(premise), Ids(hypothesis), maxLength);
+    public EncodedPair Frame(IReadOnlyList<int> premise, IReadOnlyList<int> hypothesis) =>
+        layout.Frame(premise, hypothesis, maxLength);
 
-    private List<int> Ids(string text)
+    public IReadOnlyList<int> Tokenize(string text)
     {
         var ids = segmenter.Encode(lowerCase ? text.ToLowerInvariant() : text);
         if (fairseqIds)

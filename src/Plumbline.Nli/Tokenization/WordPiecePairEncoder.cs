@@ -25,6 +25,8 @@ internal sealed class WordPiecePairEncoder : IPairEncoder
     public static WordPiecePairEncoder Create(string vocabularyFile, bool lowerCase, int maxLength) =>
         new(new WordPieceTokenizer(WordPieceVocabulary.Load(vocabularyFile), lowerCase), maxLength);
 
-    public EncodedPair Encode(string premise, string hypothesis) =>
-        layout.Frame(tokenizer.Encode(premise), tokenizer.Encode(hypothesis), maxLength);
+    public IReadOnlyList<int> Tokenize(string text) => tokenizer.Encode(text);
+
+    public EncodedPair Frame(IReadOnlyList<int> premise, IReadOnlyList<int> hypothesis) =>
+        layout.Frame(premise, hypothesis, maxLength);
 }

@@ -39,6 +39,37 @@ public sealed class NliEvaluatorTests
     }
 
     [Fact]
+    public async Task EvaluateAsync_HandComputedConfusion_GivesFalseContradictionRateAndCalibrationError()
+    {
+        // Same eight outcomes as above. Gold not contradiction: 5 pairs (3 E, 2 N), of which one (N read as C) is
+        // predicted contradiction: 1/5. Every prediction has probability 0.8, so all eight share the bin (0.733, 0.8];
+        // its accuracy is 5/8, so the calibration error is |0.625 - 0.8| = 0.175.
+        var outcomes = new (EntailmentKind Gold, EntailmentScores Predicted)[]
+        {
+            (EntailmentKind.Entailment, SaysEntailment), (EntailmentKind.Entailment, SaysEntailment), (EntailmentKind.Entailment, SaysNeutral),
+            (EntailmentKind.Neutral, SaysNeutral), (EntailmentKind.Neutral, SaysContradiction),
+            (EntailmentKind.Contradiction, SaysContradiction), (EntailmentKind.Contradiction, SaysContradiction), (EntailmentKind.Contradiction, SaysEntailment),
+        };
+        var pairs = outcomes.Select((outcome, index) => new LabelledPair(new SentencePair($"premise {index}", "hypothesis"), outcome.Gold, index + 2)).ToArray();
+        var scorer = new TableScorer(outcomes.Select((outcome, index) => ($"premise {index}", outcome.Predicted)));
+
+        var evaluation = await NliEvaluator.EvaluateAsync(scorer, pairs);
+
+        Assert.Equal(0.2, evaluation.FalseContradictionRate!.Value, 12);
+        Assert.Equal(0.175, evaluation.CalibrationError, 12);
+    }
+
+    [Fact]
+    public async Task EvaluateAsync_OnlyContradictions_HasNoFalseContradictionRate()
+    {
+        LabelledPair[] pairs = [new(new SentencePair("p", "h"), EntailmentKind.Contradiction, 2)];
+
+        var evaluation = await NliEvaluator.EvaluateAsync(new TableScorer([("p", SaysContradiction)]), pairs);
+
+        Assert.Null(evaluation.FalseContradictionRate);
+    }
+
+    [Fact]
     public async Task EvaluateAsync_ClassNeverPredicted_HasNoPrecision()
     {
         LabelledPair[] pairs = [new(new SentencePair("p", "h"), EntailmentKind.Neutral, 2)];

@@ -1,0 +1,140 @@
+using System.Diagnostics;
+using System.Globalization;
+using Plumbline.Benchmarks.Engine;
+using Plumbline.Core.Coherence;
+using Plumbline.Core.Language;
+using Plumbline.Core.Trees;
+
+namespace Plumbline.Benchmarks.Pipeline;
+
+/// <summary>
+/// <c>pipeline-memory</c>: peak resident memory of whole runs of 1,000 and 10,000 generated claims (recorded answers,
+/// the shipped NLI model, CP-SAT, JSON, HTML and JSON Lines reports), each in a process of its own, side by side.
+/// <c>pipeline-throughput</c>: claims per minute on full-size trees (19 statements) with recorded answers and the
+/// shipped NLI model, and where the time of a claim goes (NLI scoring, solving, the rest).
+/// </summary>
+internal static class PipelineBenchmarks
+{
+    /// <summary>Small trees keep 10,000 claims within a benchmark's time; memory, not speed, is measured here.</summary>
+    private static readonly CoherenceOptions SmallTrees = CoherenceOptions.Default with
+    {
+        Shape = new TreeShape([new LevelShape(1, Decoding.Greedy())]),
+        Negation = NegationMode.Prefix,
+    };
+
+    public static async Task<int> MemoryAsync(string[] args, TextWriter output, TextWriter error)
+    {
+        if (args is ["--child", var countText])
+        {
+            var count = int.Parse(countText, CultureInfo.InvariantCulture);
+            using var folder = new Scratch();
+            var claims = PipelineRun.Claims(count);
+            var recording = Path.Combine(folder.Path, "recording.jsonl");
+            await PipelineRun.RecordAsync(recording, new SmallTreeModel(), claims, SmallTrees);
+            var watch = Stopwatch.StartNew();
+            var outcome = await PipelineRun.JudgeAsync(recording, claims, SmallTrees, folder.Path, inFlight: 4);
+            output.WriteLine(FormattableString.Invariant(
+                $"{count}\t{PipelineRun.PeakResidentMiB():0.0}\t{watch.Elapsed.TotalSeconds:0.0}\t{outcome.Report.Figures.Judged}\t{new FileInfo(Path.Combine(folder.Path, "report.html")).Length / 1048576.0:0.0}"));
+            return outcome.Report.Figures.Judged == count ? 0 : 1;
+        }
+
+        var sizes = args is ["--claims", var a, var b] ? new[] { int.Parse(a, CultureInfo.InvariantCulture), int.Parse(b, CultureInfo.InvariantCulture) } : [1_000, 10_000];
+        output.WriteLine("pipeline-memory: whole runs in separate processes (recorded answers, shipped NLI model, CP-SAT, json + html + jsonl reports)");
+        output.WriteLine("claims\tpeak RSS MiB\twall s\tjudged\thtml MiB");
+        var peaks = new List<double>();
+        foreach (var size in sizes)
+        {
+            var line = await ChildAsync(["pipeline-memory", "--child", size.ToString(CultureInfo.InvariantCulture)], error);
+            if (line is null)
+            {
+                return 1;
+            }
+
+            output.WriteLine(line);
+            peaks.Add(double.Parse(line.Split('\t')[1], CultureInfo.InvariantCulture));
+        }
+
+        var ratio = peaks[1] / peaks[0];
+        output.WriteLine(FormattableString.Invariant(
+            $"peak RSS {sizes[1]} / {sizes[0]} claims: {ratio:0.000} (target: both <= 500 MiB and within 10%: {(peaks.All(p => p <= 500) && Math.Abs(ratio - 1) <= 0.10 ? "met" : "NOT met")})"));
+        return 0;
+    }
+
+    /// <summary>
+    /// The default settings, but keeping explanations without a final full stop: the generated full-size trees write
+    /// "statement | for k", which the default rule would discard as cut off, leaving a tree of one statement.
+    /// </summary>
+    private static readonly CoherenceOptions FullTrees = CoherenceOptions.Default with { DiscardCutOff = false };
+
+    public static async Task<int> ThroughputAsync(string[] args, TextWriter output, TextWriter error)
+    {
+        var count = args is ["--claims", var n] ? int.Parse(n, CultureInfo.InvariantCulture) : 24;
+        var inFlight = args is [.., "--in-flight", var f] ? int.Parse(f, CultureInfo.InvariantCulture) : Application.Running.RunOptions.DefaultInFlight;
+        using var folder = new Scratch();
+        var claims = PipelineRun.Claims(count);
+        var recording = Path.Combine(folder.Path, "recording.jsonl");
+        await PipelineRun.RecordAsync(recording, new FullTreeModel(), claims, FullTrees);
+
+        var watch = Stopwatch.StartNew();
+        var outcome = await PipelineRun.JudgeAsync(recording, claims, FullTrees, folder.Path, inFlight);
+        var wall = watch.Elapsed;
+
+        // Per-claim timings from the JSON report: tree (model calls), NLI scoring, solving.
+        using var report = System.Text.Json.JsonDocument.Parse(await File.ReadAllTextAsync(Path.Combine(folder.Path, "report.json")));
+        double tree = 0, nli = 0, solve = 0;
+        var statements = new List<int>();
+        foreach (var claim in report.RootElement.GetProperty("claims").EnumerateArray())
+        {
+            var timings = claim.GetProperty("timings_ms");
+            tree += timings.GetProperty("tree").GetDouble();
+            nli += timings.GetProperty("nli").GetDouble();
+            solve += timings.GetProperty("solve").GetDouble();
+            statements.Add(claim.GetProperty("counts").GetProperty("kept").GetInt32());
+        }
+
+        var judged = outcome.Report.Figures.Judged;
+        var busy = wall.TotalMilliseconds * Math.Min(inFlight, Environment.ProcessorCount);
+        output.WriteLine(FormattableString.Invariant($"pipeline-throughput: {judged} claims, kept statements per claim {statements.Min()}-{statements.Max()}, {inFlight} in flight, {Environment.ProcessorCount} cores"));
+        output.WriteLine(FormattableString.Invariant($"wall {wall.TotalSeconds:0.0} s, {judged / wall.TotalMinutes:0.0} claims/min (target 60: {(judged / wall.TotalMinutes >= 60 ? "met" : "NOT met")})"));
+        var claimTime = tree + nli + solve;
+        output.WriteLine(FormattableString.Invariant(
+            $"share of claim time: NLI {nli / claimTime:P1}, solving {solve / claimTime:P1}, the rest (tree from recorded answers, clauses) {tree / claimTime:P1}"));
+        output.WriteLine(FormattableString.Invariant(
+            $"claim time summed over claims {claimTime / 1000:0.0} s against wall x min(in flight, cores) {busy / 1000:0.0} s: {Math.Max(0, 1 - claimTime / busy):P1} of that outside the engine (run loop, reports, waiting)"));
+        return judged == count ? 0 : 1;
+    }
+
+    private static async Task<string?> ChildAsync(string[] args, TextWriter error)
+    {
+        var host = Environment.ProcessPath ?? "dotnet";
+        var start = new ProcessStartInfo(host) { RedirectStandardOutput = true, UseShellExecute = false };
+        if (Path.GetFileNameWithoutExtension(host) == "dotnet")
+        {
+            start.ArgumentList.Add(typeof(PipelineBenchmarks).Assembly.Location);
+        }
+
+        foreach (var arg in args)
+        {
+            start.ArgumentList.Add(arg);
+        }
+
+        using var child = Process.Start(start)!;
+        var text = await child.StandardOutput.ReadToEndAsync();
+        await child.WaitForExitAsync();
+        if (child.ExitCode != 0)
+        {
+            await error.WriteLineAsync($"pipeline-memory: the run of {args[^1]} claims failed (exit {child.ExitCode})");
+            return null;
+        }
+
+        return text.Trim().Split('\n')[^1];
+    }
+
+    /// <summary>A temporary folder for the recording, the spill file and the reports.</summary>
+    private sealed class Scratch : IDisposable
+    {
+        public string Path { get; } = Directory.CreateTempSubdirectory("plumb-bench-").FullName;
+
+        public void Dispose() => Directory.Delete(Path, recursive: true);
+    }
+}
