@@ -14,6 +14,9 @@ internal sealed record CliContext(TextWriter Output, TextWriter Error, bool Colo
     /// <summary>Standard input, for claims given as "-".</summary>
     public Func<Stream> StandardInput { get; init; } = () => Stream.Null;
 
+    /// <summary>The folder a config file is looked for in (the process's working directory).</summary>
+    public Func<string> WorkingDirectory { get; init; } = () => Environment.CurrentDirectory;
+
     /// <summary>Standard error is a terminal: progress is drawn as a bar rather than written as lines.</summary>
     public bool ErrorIsTerminal { get; init; }
 

@@ -1,13 +1,27 @@
 using System.CommandLine;
 using Plumbline.Cli.Commands;
 using Plumbline.Cli.Composition;
+using Plumbline.Cli.Configuration;
 
 namespace Plumbline.Cli;
 
-/// <summary>The command tree and its invocation. Parse errors are usage errors: one line, exit code 2.</summary>
+/// <summary>
+/// The command tree and its invocation. The command line is completed from the config file and the environment
+/// (<see cref="LayeredCommandLine"/>) before it runs. Parse errors are usage errors: one line, exit code 2.
+/// </summary>
 internal static class PlumbCli
 {
-    public static RootCommand Build(CliContext context, CompositionRoot composition)
+    /// <summary><c>--config FILE</c>, which every command takes.</summary>
+    public static Option<string?> CreateConfigOption() => new("--config")
+    {
+        Description = $"Read default settings from this TOML file (default: {ConfigFile.DefaultName} in the working directory, or the file ${ConfigFile.Variable} names).",
+        HelpName = "FILE",
+        Recursive = true,
+    };
+
+    public static RootCommand Build(CliContext context, CompositionRoot composition) => Build(context, composition, LayeredCommandLine.None);
+
+    public static RootCommand Build(CliContext context, CompositionRoot composition, LayeredCommandLine layers)
     {
         var root = new RootCommand(
             "plumb: checks whether a language model's true/false answers hold together under its own explanations.\n" +
@@ -20,6 +34,8 @@ internal static class PlumbCli
         root.Subcommands.Add(CacheCommand.Create(context, composition));
         root.Subcommands.Add(CompareCommand.Create(context, composition));
         root.Subcommands.Add(MergeCommand.Create(context, composition));
+        root.Subcommands.Add(ConfigCommand.Create(context, composition, layers));
+        root.Options.Add(CreateConfigOption());
         return root;
     }
 
@@ -42,15 +58,39 @@ internal static class PlumbCli
             return ExitCodes.UsageError;
         }
 
-        var parse = Build(context, root).Parse(args);
+        var tree = Build(context, root);
+        var parse = tree.Parse(args);
         if (parse.Errors.Count > 0)
         {
-            var command = parse.CommandResult.Command;
-            var help = command is RootCommand ? "plumb --help" : $"plumb {command.Name} --help";
-            await context.Error.WriteLineAsync(CliErrors.Line($"{string.Join("; ", parse.Errors.Select(e => e.Message))} (see {help})"));
+            return await ParseErrorsAsync(context, parse, LayeredCommandLine.None);
+        }
+
+        LayeredCommandLine layers;
+        try
+        {
+            var configOption = (Option<string?>)tree.Options.First(o => o.Name == "--config");
+            layers = LayeredCommandLine.Apply(args, parse, configOption, root.Environment, context.WorkingDirectory());
+        }
+        catch (UsageException e)
+        {
+            await context.Error.WriteLineAsync(CliErrors.Line(e.Message));
             return ExitCodes.UsageError;
         }
 
+        parse = Build(context, root, layers).Parse(layers.Args);
+        if (parse.Errors.Count > 0)
+        {
+            return await ParseErrorsAsync(context, parse, layers);
+        }
+
         return await parse.InvokeAsync(configuration, cancellationToken);
+    }
+
+    private static async Task<int> ParseErrorsAsync(CliContext context, ParseResult parse, LayeredCommandLine layers)
+    {
+        var command = parse.CommandResult.Command;
+        var help = command is RootCommand ? "plumb --help" : $"plumb {command.Name} --help";
+        await context.Error.WriteLineAsync(CliErrors.Line($"{string.Join("; ", parse.Errors.Select(layers.Explain))} (see {help})"));
+        return ExitCodes.UsageError;
     }
 }

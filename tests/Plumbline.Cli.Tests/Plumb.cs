@@ -10,6 +10,16 @@ internal static class Plumb
 
     public static Task<PlumbResult> RunAsync(CompositionRoot root, params string[] args) => RunWithInputAsync(root, null, args);
 
+    /// <summary>Runs with <paramref name="workingDirectory"/> as the folder a config file is looked for in.</summary>
+    public static async Task<PlumbResult> RunInAsync(CompositionRoot root, string workingDirectory, params string[] args)
+    {
+        using var output = new StringWriter();
+        using var error = new StringWriter();
+        var context = new CliContext(output, error) { WorkingDirectory = () => workingDirectory };
+        var code = await PlumbCli.RunAsync(args, context, root, CancellationToken.None);
+        return new PlumbResult(code, output.ToString(), error.ToString());
+    }
+
     /// <summary>Runs with <paramref name="standardInput"/> as the text on standard input.</summary>
     public static async Task<PlumbResult> RunWithInputAsync(CompositionRoot root, string? standardInput, params string[] args)
     {

@@ -20,13 +20,7 @@ internal static class CompareCommand
         var old = new Argument<string>("old") { Description = "The earlier run's JSON (or JSON Lines) report.", HelpName = "OLD" };
         var now = new Argument<string>("new") { Description = "The later run's report.", HelpName = "NEW" };
         var output = new OutputOptions(ComparisonWriters.Formats);
-        var alpha = new Option<double?>("--fail-on-regression")
-        {
-            Description = "Exit 1 when more paired claims went from right to wrong than back and McNemar's exact p-value is below ALPHA " +
-                          "(without gold labels: when the answers shifted either way with p below ALPHA).",
-            HelpName = "ALPHA",
-        };
-        alpha.CustomParser = result => NumberParsing.Parse(result, "--fail-on-regression", "a significance level (a number above 0 and below 1)", v => v is > 0 and < 1);
+        var alpha = CreateRegressionOption();
         var command = new Command("compare", "Compare two runs' reports: changed claims, figure deltas, McNemar's exact test.");
         command.Arguments.Add(old);
         command.Arguments.Add(now);
@@ -50,5 +44,18 @@ internal static class CompareCommand
             return ExitCodeDecision.Of(comparison);
         }, cancellationToken));
         return command;
+    }
+
+    /// <summary><c>--fail-on-regression ALPHA</c> (also shown by <c>plumb config</c>).</summary>
+    public static Option<double?> CreateRegressionOption()
+    {
+        var alpha = new Option<double?>("--fail-on-regression")
+        {
+            Description = "Exit 1 when more paired claims went from right to wrong than back and McNemar's exact p-value is below ALPHA " +
+                          "(without gold labels: when the answers shifted either way with p below ALPHA).",
+            HelpName = "ALPHA",
+        };
+        alpha.CustomParser = result => NumberParsing.Parse(result, "--fail-on-regression", "a significance level (a number above 0 and below 1)", v => v is > 0 and < 1);
+        return alpha;
     }
 }

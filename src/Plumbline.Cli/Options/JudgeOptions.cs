@@ -78,6 +78,8 @@ internal sealed class JudgeOptions
 
     private readonly EngineOptions engine = new();
 
+    private readonly Option<Core.Trees.TreeShape?> treeWidths = TreeShapeOption.Create();
+
     private readonly IReadOnlyList<string> formats;
 
     public JudgeOptions(IReadOnlyList<string> reportFormats)
@@ -109,6 +111,7 @@ internal sealed class JudgeOptions
         Model.AddTo(command);
         command.Options.Add(NliModel);
         engine.AddTo(command);
+        command.Options.Add(treeWidths);
         command.Options.Add(exportWcnf);
         Output.AddTo(command);
         command.Options.Add(report);
@@ -130,6 +133,11 @@ internal sealed class JudgeOptions
     {
         var source = Model.Read(parse);
         var engine = this.engine.Read(parse);
+        if (parse.GetValue(treeWidths) is { } shape)
+        {
+            engine = engine with { Shape = shape };
+        }
+
         var export = parse.GetValue(exportWcnf);
         if (export is { Length: 0 })
         {
