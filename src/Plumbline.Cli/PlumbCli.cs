@@ -35,6 +35,7 @@ internal static class PlumbCli
         root.Subcommands.Add(CompareCommand.Create(context, composition));
         root.Subcommands.Add(MergeCommand.Create(context, composition));
         root.Subcommands.Add(ConfigCommand.Create(context, composition, layers));
+        root.Subcommands.Add(DoctorCommand.Create(context, composition));
         root.Options.Add(CreateConfigOption());
         return root;
     }
