@@ -11,8 +11,8 @@ using Plumbline.Nli.Evaluation;
 namespace Plumbline.Cli.Commands;
 
 /// <summary>
-/// <c>plumb nli PREMISE HYPOTHESIS</c> scores one pair with the NLI model; <c>plumb nli --eval FILE</c> measures
-/// the model on labelled pairs (CSV, TSV or JSON Lines).
+/// <c>plumb nli PREMISE HYPOTHESIS</c> scores one pair with the NLI model; <c>plumb nli --eval FILE...</c> measures
+/// the model on each file of labelled pairs (CSV, TSV or JSON Lines), loading it once.
 /// </summary>
 internal static class NliCommand
 {
@@ -22,10 +22,11 @@ internal static class NliCommand
     {
         var premise = new Argument<string?>("premise") { Description = "The premise sentence.", HelpName = "PREMISE", Arity = ArgumentArity.ZeroOrOne };
         var hypothesis = new Argument<string?>("hypothesis") { Description = "The hypothesis sentence.", HelpName = "HYPOTHESIS", Arity = ArgumentArity.ZeroOrOne };
-        var eval = new Option<string?>("--eval")
+        var eval = new Option<string[]>("--eval")
         {
-            Description = "Evaluate the model on labelled pairs: .csv, .tsv or .jsonl with premise, hypothesis and label fields.",
+            Description = "Evaluate the model on labelled pairs, per file: .csv, .tsv or .jsonl with premise, hypothesis and label fields.",
             HelpName = "FILE",
+            AllowMultipleArgumentsPerToken = true,
         };
         var nliModel = NliModelOption.Create();
         var output = new OutputOptions(Formats);
@@ -37,26 +38,32 @@ internal static class NliCommand
         output.AddTo(command);
         command.SetAction((parse, cancellationToken) => Guarded.RunAsync(context, async () =>
         {
-            var (p, h, evalFile) = (parse.GetValue(premise), parse.GetValue(hypothesis), parse.GetValue(eval));
+            var (p, h, evalFiles) = (parse.GetValue(premise), parse.GetValue(hypothesis), parse.GetValue(eval) ?? []);
             var settings = output.Read(parse);
             string text;
-            if (evalFile is not null)
+            if (evalFiles.Length > 0)
             {
                 if (p is not null || h is not null)
                 {
-                    throw new UsageException("nli: give either a premise and a hypothesis, or --eval FILE, not both");
+                    throw new UsageException("nli: give either a premise and a hypothesis, or --eval FILE..., not both");
                 }
 
-                var pairs = ReadPairs(evalFile);
+                // Every file is read before the model loads, so a bad row in the last file costs no scoring.
+                var sets = evalFiles.Select(ReadPairs).ToArray();
                 using var scorer = root.OpenNliModel(NliModelOption.Read(parse, nliModel));
-                var evaluation = await NliEvaluator.EvaluateAsync(scorer, pairs.Pairs, root.Time, cancellationToken);
-                text = settings.Format == "json" ? NliEvaluationOutput.Json(pairs, evaluation) : NliEvaluationOutput.Text(pairs, evaluation);
+                var evaluations = new List<(LabelledPairSet Pairs, NliEvaluation Evaluation)>();
+                foreach (var pairs in sets)
+                {
+                    evaluations.Add((pairs, await NliEvaluator.EvaluateAsync(scorer, pairs.Pairs, root.Time, cancellationToken)));
+                }
+
+                text = settings.Format == "json" ? NliEvaluationOutput.Json(evaluations) : NliEvaluationOutput.Text(evaluations);
             }
             else
             {
                 if (string.IsNullOrWhiteSpace(p) || string.IsNullOrWhiteSpace(h))
                 {
-                    throw new UsageException("nli: give a premise and a hypothesis, both non-empty (or --eval FILE)");
+                    throw new UsageException("nli: give a premise and a hypothesis, both non-empty (or --eval FILE...)");
                 }
 
                 using var scorer = root.OpenNliModel(NliModelOption.Read(parse, nliModel));

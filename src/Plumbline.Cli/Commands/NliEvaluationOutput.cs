@@ -4,10 +4,35 @@ using Plumbline.Nli.Evaluation;
 
 namespace Plumbline.Cli.Commands;
 
-/// <summary>How <c>plumb nli --eval</c> shows an evaluation: accuracy, per-class precision and recall, confusion matrix, speed.</summary>
+/// <summary>
+/// How <c>plumb nli --eval</c> shows evaluations: per file, accuracy, the false-contradiction rate, the calibration
+/// error, per-class precision and recall, the confusion matrix and speed; for several files, a table of all of them.
+/// </summary>
 internal static class NliEvaluationOutput
 {
-    public static string Text(LabelledPairSet pairs, NliEvaluation evaluation)
+    public static string Text(IReadOnlyList<(LabelledPairSet Pairs, NliEvaluation Evaluation)> evaluations)
+    {
+        var text = new StringBuilder();
+        foreach (var (pairs, evaluation) in evaluations)
+        {
+            text.Append(Text(pairs, evaluation)).Append('\n');
+        }
+
+        if (evaluations.Count > 1)
+        {
+            var c = CultureInfo.InvariantCulture;
+            var width = Math.Max(4, evaluations.Max(e => Path.GetFileName(e.Pairs.File).Length));
+            text.Append(c, $"{"file".PadRight(width)} {"pairs",7} {"accuracy",9} {"false contradiction",20} {"calibration error",18}\n");
+            foreach (var (pairs, evaluation) in evaluations)
+            {
+                text.Append(c, $"{Path.GetFileName(pairs.File).PadRight(width)} {evaluation.Pairs,7} {evaluation.Accuracy,9:0.0000} {Ratio(evaluation.FalseContradictionRate),20} {evaluation.CalibrationError,18:0.0000}\n");
+            }
+        }
+
+        return text.ToString().TrimEnd('\n') + "\n";
+    }
+
+    private static string Text(LabelledPairSet pairs, NliEvaluation evaluation)
     {
         var text = new StringBuilder();
         var c = CultureInfo.InvariantCulture;
@@ -15,6 +40,8 @@ internal static class NliEvaluationOutput
         text.Append(c, $"  model      {evaluation.Model}\n");
         text.Append(c, $"  pairs      {evaluation.Pairs} ({pairs.SkippedUnlabelled} unlabelled skipped, {evaluation.TruncatedPairs} truncated to the model's maximum length)\n");
         text.Append(c, $"  accuracy   {evaluation.Accuracy:0.0000} ({evaluation.Correct}/{evaluation.Pairs})\n");
+        text.Append(c, $"  false contradiction  {Ratio(evaluation.FalseContradictionRate)} ({evaluation.FalseContradictions} of {evaluation.NotContradictionPairs} pairs whose gold is not contradiction)\n");
+        text.Append(c, $"  calibration error    {evaluation.CalibrationError:0.0000} (expected calibration error of the predicted class, {CalibrationBins.DefaultBins} bins)\n");
         text.Append(c, $"  speed      {evaluation.PairsPerSecond:0.0} pairs/s ({evaluation.Elapsed.TotalSeconds:0.000} s)\n\n");
 
         text.Append(c, $"  {"class",-14} {"precision",9} {"recall",9} {"gold",7} {"predicted",9}\n");
@@ -45,7 +72,13 @@ internal static class NliEvaluationOutput
         return text.ToString();
     }
 
-    public static string Json(LabelledPairSet pairs, NliEvaluation evaluation) => JsonText.Object(json =>
+    /// <summary>One file gives one object; several give an array of them, in the order given.</summary>
+    public static string Json(IReadOnlyList<(LabelledPairSet Pairs, NliEvaluation Evaluation)> evaluations) =>
+        evaluations.Count == 1
+            ? Json(evaluations[0].Pairs, evaluations[0].Evaluation)
+            : "[\n" + string.Join(",\n", evaluations.Select(e => Json(e.Pairs, e.Evaluation).TrimEnd('\n'))) + "\n]\n";
+
+    private static string Json(LabelledPairSet pairs, NliEvaluation evaluation) => JsonText.Object(json =>
     {
         json.WriteString("file", pairs.File);
         json.WriteString("model", evaluation.Model);
@@ -54,6 +87,9 @@ internal static class NliEvaluationOutput
         json.WriteNumber("truncated", evaluation.TruncatedPairs);
         json.WriteNumber("correct", evaluation.Correct);
         json.WriteNumber("accuracy", evaluation.Accuracy);
+        json.WriteNullable("false_contradiction_rate", evaluation.FalseContradictionRate);
+        json.WriteNumber("false_contradictions", evaluation.FalseContradictions);
+        json.WriteNumber("calibration_error", evaluation.CalibrationError);
         json.WriteNumber("seconds", Math.Round(evaluation.Elapsed.TotalSeconds, 6));
         json.WriteNumber("pairs_per_second", Math.Round(evaluation.PairsPerSecond, 3));
         json.WriteStartArray("classes");

@@ -9,20 +9,18 @@ namespace Plumbline.Nli.Evaluation;
 /// <param name="CalibrationError">Expected calibration error of the predicted class's probability (<see cref="CalibrationBins"/>).</param>
 public sealed record NliEvaluation(string Model, NliConfusionMatrix Confusion, TimeSpan Elapsed, int TruncatedPairs, double CalibrationError = 0)
 {
+    /// <summary>Pairs whose gold label is entailment or neutral.</summary>
+    public int NotContradictionPairs => Confusion.GoldCount(EntailmentKind.Entailment) + Confusion.GoldCount(EntailmentKind.Neutral);
+
+    /// <summary>Pairs whose gold label is entailment or neutral that the model reads as contradiction.</summary>
+    public int FalseContradictions =>
+        Confusion[EntailmentKind.Entailment, EntailmentKind.Contradiction] + Confusion[EntailmentKind.Neutral, EntailmentKind.Contradiction];
+
     /// <summary>
     /// Share of the pairs whose gold label is not contradiction that the model reads as contradiction; null when
     /// every pair is a contradiction. In an explanation tree each such error becomes a wrong clause.
     /// </summary>
-    public double? FalseContradictionRate
-    {
-        get
-        {
-            var notContradiction = Confusion.GoldCount(EntailmentKind.Entailment) + Confusion.GoldCount(EntailmentKind.Neutral);
-            return notContradiction == 0
-                ? null
-                : (double)(Confusion[EntailmentKind.Entailment, EntailmentKind.Contradiction] + Confusion[EntailmentKind.Neutral, EntailmentKind.Contradiction]) / notContradiction;
-        }
-    }
+    public double? FalseContradictionRate => NotContradictionPairs == 0 ? null : (double)FalseContradictions / NotContradictionPairs;
 
     public int Pairs => Confusion.Total;
 

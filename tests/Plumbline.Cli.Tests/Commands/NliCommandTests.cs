@@ -148,6 +148,63 @@ public sealed class NliCommandTests
     }
 
     [Fact]
+    public async Task NliEval_FalseContradictionRate_IsContradictionReadingsOfNonContradictionGold()
+    {
+        using var folder = new TempDirectory();
+        var file = EvalFile(folder);
+
+        var result = await Plumb.RunAsync("nli", "--eval", file, "--format", "json");
+
+        Assert.True(result.ExitCode == 0, result.ToString());
+        using var json = JsonDocument.Parse(result.Output);
+        var root = json.RootElement;
+        var confusion = root.GetProperty("confusion");
+        var wrong = confusion.GetProperty("entailment").GetProperty("contradiction").GetInt32()
+            + confusion.GetProperty("neutral").GetProperty("contradiction").GetInt32();
+        Assert.Equal(wrong, root.GetProperty("false_contradictions").GetInt32());
+        // Four of the six labelled pairs are entailment or neutral.
+        Assert.Equal(wrong / 4.0, root.GetProperty("false_contradiction_rate").GetDouble(), 9);
+        Assert.InRange(root.GetProperty("calibration_error").GetDouble(), 0.0, 1.0);
+    }
+
+    [Fact]
+    public async Task NliEval_SeveralFiles_OneResultPerFileInOrderAndASummaryTable()
+    {
+        using var folder = new TempDirectory();
+        var mixed = EvalFile(folder);
+        var contradictions = folder.Write("contradictions.csv",
+            "sentence1,sentence2,label\n\"A child is sleeping in bed.\",\"The child is running in the park.\",contradiction\n\"The shop is closed on Sundays.\",\"The shop is open on Sundays.\",contradiction\n");
+
+        var json = await Plumb.RunAsync("nli", "--eval", mixed, contradictions, "--format", "json");
+        var text = await Plumb.RunAsync("nli", "--eval", mixed, contradictions);
+
+        Assert.True(json.ExitCode == 0, json.ToString());
+        using var document = JsonDocument.Parse(json.Output);
+        var files = document.RootElement.EnumerateArray().ToArray();
+        Assert.Equal([mixed, contradictions], files.Select(f => f.GetProperty("file").GetString()));
+        Assert.Equal([6, 2], files.Select(f => f.GetProperty("pairs").GetInt32()));
+        // With no gold entailment or neutral pair there is no false-contradiction rate to give.
+        Assert.Equal(JsonValueKind.Null, files[1].GetProperty("false_contradiction_rate").ValueKind);
+        Assert.True(text.ExitCode == 0, text.ToString());
+        Assert.Matches(@"(?m)^pairs\.jsonl\s+6\s+[01]\.\d{4}\s+[01]\.\d{4}\s+[01]\.\d{4}$", text.Output);
+        Assert.Matches(@"(?m)^contradictions\.csv\s+2\s+[01]\.\d{4}\s+-\s+[01]\.\d{4}$", text.Output);
+    }
+
+    [Fact]
+    public async Task NliEval_BadRowInALaterFile_FailsNamingThatFileBeforeAnyScoring()
+    {
+        using var folder = new TempDirectory();
+        var good = EvalFile(folder);
+        var bad = folder.Write("bad.csv", "sentence1,sentence2,label\nA cat sits.,A cat is sitting.,maybe\n");
+
+        var result = await Plumb.RunAsync("nli", "--eval", good, bad);
+
+        Assert.Equal(2, result.ExitCode);
+        Assert.StartsWith($"plumb: {bad}:2: label: ", Assert.Single(result.ErrorLines));
+        Assert.DoesNotContain("nli evaluation of", result.Output);
+    }
+
+    [Fact]
     public async Task NliEval_TextFormat_ShowsAccuracyClassesConfusionSpeedAndTruncation()
     {
         using var folder = new TempDirectory();
@@ -160,6 +217,8 @@ public sealed class NliCommandTests
         Assert.Matches(@"accuracy   [01]\.\d{4} \(\d/6\)", result.Output);
         Assert.Contains("confusion (rows: gold, columns: predicted)", result.Output);
         Assert.Matches(@"speed      \d+\.\d pairs/s", result.Output);
+        Assert.Matches(@"false contradiction  [01]\.\d{4} \(\d of 4 pairs whose gold is not contradiction\)", result.Output);
+        Assert.Matches(@"calibration error    [01]\.\d{4} ", result.Output);
     }
 
     [Fact]
@@ -183,6 +242,6 @@ public sealed class NliCommandTests
         var result = await Plumb.RunAsync("nli", "a", "b", "--eval", file);
 
         Assert.Equal(2, result.ExitCode);
-        Assert.Equal("plumb: nli: give either a premise and a hypothesis, or --eval FILE, not both", Assert.Single(result.ErrorLines));
+        Assert.Equal("plumb: nli: give either a premise and a hypothesis, or --eval FILE..., not both", Assert.Single(result.ErrorLines));
     }
 }
