@@ -1,3 +1,4 @@
+using System.Globalization;
 using System.Security.Cryptography;
 using Microsoft.ML.OnnxRuntime;
 using Plumbline.Core.Entailment;
@@ -37,7 +38,11 @@ public sealed class NliModel : IDisposable
     public string ModelSha256 { get; }
 
     /// <summary>Model name and a short hash of its weights, so a report pins the exact model.</summary>
-    public string Describe => $"{Card.Name} (model.onnx sha256 {ModelSha256[..12]})";
+    /// <remarks>The calibration temperature is named when the card sets one: it changes every probability, so two runs
+    /// with the same model.onnx but different temperatures must not look alike in reports or comparisons.</remarks>
+    public string Describe => Card.Temperature == 1.0
+        ? $"{Card.Name} (model.onnx sha256 {ModelSha256[..12]})"
+        : string.Create(CultureInfo.InvariantCulture, $"{Card.Name} (model.onnx sha256 {ModelSha256[..12]}, temperature {Card.Temperature:0.####})");
 
     /// <summary>The raw session, for benchmarks that time it against the scorer.</summary>
     public InferenceSession Session { get; }

@@ -22,11 +22,17 @@ internal sealed class ScoreCache
 
     public string Path => path;
 
-    /// <summary>Opens (or starts) the cache file of the model with the given hash in <paramref name="folder"/>.</summary>
-    public static ScoreCache Open(string folder, string modelSha256)
+    /// <summary>
+    /// Opens (or starts) the cache file of the model with the given hash and calibration temperature in
+    /// <paramref name="folder"/>: the stored probabilities depend on both.
+    /// </summary>
+    public static ScoreCache Open(string folder, string modelSha256, double temperature)
     {
         Directory.CreateDirectory(folder);
-        var cache = new ScoreCache(System.IO.Path.Combine(folder, $"nli-{modelSha256}.tsv"));
+        var name = temperature == 1.0
+            ? $"nli-{modelSha256}.tsv"
+            : string.Create(CultureInfo.InvariantCulture, $"nli-{modelSha256}-t{temperature:R}.tsv");
+        var cache = new ScoreCache(System.IO.Path.Combine(folder, name));
         if (File.Exists(cache.path))
         {
             foreach (var line in File.ReadLines(cache.path, Encoding.UTF8))

@@ -66,7 +66,7 @@ internal static class TreeGridBenchmark
             var claims = ReadClaims(Path.Combine(trees, "claims.jsonl")).Take(limit).ToList();
             var recording = await OpenRecordingAsync(trees, cacheFolder);
             using var model = NliModel.Load(nliModel);
-            var cache = ScoreCache.Open(cacheFolder, model.ModelSha256);
+            var cache = ScoreCache.Open(cacheFolder, model.ModelSha256, model.Card.Temperature);
             output.WriteLine($"trees: {claims.Count} claims from {trees}");
             output.WriteLine($"NLI model: {model.Describe}; model.onnx sha256 {model.ModelSha256}");
             output.WriteLine($"score cache: {cache.Path} ({cache.Count} pairs)");
