@@ -7,7 +7,7 @@ import numpy as np
 import torch
 from torch import nn
 
-from quantize import quantize_columns, quantize_rows
+from quantize import quantize_columns, quantize_columns_symmetric, quantize_rows
 
 
 def dynamic_quantize(x):
@@ -31,7 +31,7 @@ class EmulatedLinear(nn.Module):
         self.weights_only = weights_only
         self.rows = rows
         w = linear.weight.detach().numpy().T.astype(np.float32)  # [in, out] as exported
-        q, scale, zero = quantize_columns(w)
+        q, scale, zero = quantize_columns_symmetric(w) if rows else quantize_columns(w)
         self.register_buffer("wq", torch.from_numpy(q.astype(np.float64) - zero.astype(np.float64)))
         self.register_buffer("wscale", torch.from_numpy(scale))
         self.register_buffer("bias", linear.bias.detach().clone())
