@@ -1,5 +1,6 @@
-using System.Text;
+using System.Runtime.CompilerServices;
 using System.Text.Json;
+using Microsoft.Win32.SafeHandles;
 using Plumbline.Core.Coherence;
 using Plumbline.Core.Language;
 
@@ -19,29 +20,17 @@ internal static class RecordingReader
     private static readonly string[] GenerationResponseFields = ["texts", "prompt_tokens", "completion_tokens"];
     private static readonly string[] AnswerResponseFields = ["p_true", "p_false", "estimated", "prompt_tokens", "completion_tokens"];
 
+    /// <summary>Every distinct request of the file, parsed, in file order: what the response cache imports.</summary>
     public static async Task<IReadOnlyList<RecordedEntry>> ReadAsync(string path, string promptVersion, CancellationToken cancellationToken)
     {
         var entries = new List<RecordedEntry>();
         var byKey = new Dictionary<string, RecordedEntry>(StringComparer.Ordinal);
-        using var reader = new StreamReader(path, Encoding.UTF8, detectEncodingFromByteOrderMarks: true);
-        var lineNumber = 0;
-        while (await reader.ReadLineAsync(cancellationToken).ConfigureAwait(false) is { } text)
+        using var file = await RecordingFileLines.OpenAsync(path, cancellationToken).ConfigureAwait(false);
+        await foreach (var (entry, _) in ParseAllAsync(file, path, promptVersion, cancellationToken).ConfigureAwait(false))
         {
-            lineNumber++;
-            if (string.IsNullOrWhiteSpace(text))
-            {
-                continue;
-            }
-
-            var entry = new LineParser(path, lineNumber, promptVersion).Parse(text);
             if (byKey.TryGetValue(entry.Fingerprint.Key, out var earlier))
             {
-                if (earlier.ResponseJson != entry.ResponseJson)
-                {
-                    throw new RecordingFormatException(path, lineNumber, "key",
-                        $"same request as line {earlier.Line} but a different response");
-                }
-
+                CheckRepeat(path, earlier, entry);
                 continue;
             }
 
@@ -50,6 +39,31 @@ internal static class RecordingReader
         }
 
         return entries;
+    }
+
+    /// <summary>Parses and validates every line of the file that is not blank, with its position.</summary>
+    /// <exception cref="RecordingFormatException">A line is malformed.</exception>
+    public static async IAsyncEnumerable<(RecordedEntry Entry, LinePosition Position)> ParseAllAsync(
+        SafeFileHandle file, string path, string promptVersion, [EnumeratorCancellation] CancellationToken cancellationToken)
+    {
+        await foreach (var (position, text) in RecordingFileLines.ReadAllAsync(file, path, cancellationToken).ConfigureAwait(false))
+        {
+            if (!string.IsNullOrWhiteSpace(text))
+            {
+                yield return (new LineParser(path, position.Number, promptVersion).Parse(text), position);
+            }
+        }
+    }
+
+    /// <summary>A request recorded twice must have the same response both times (compared in one spelling, so
+    /// <c>0.9</c> and <c>9e-1</c> are the same).</summary>
+    /// <exception cref="RecordingFormatException">The responses differ; the message names both lines.</exception>
+    public static void CheckRepeat(string path, RecordedEntry earlier, RecordedEntry later)
+    {
+        if (earlier.ResponseJson != later.ResponseJson)
+        {
+            throw new RecordingFormatException(path, later.Line, "key", $"same request as line {earlier.Line} but a different response");
+        }
     }
 
     /// <summary>Parses and validates one line, as <see cref="ReadAsync"/> does for each line of a file.</summary>

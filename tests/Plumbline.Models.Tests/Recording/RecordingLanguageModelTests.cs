@@ -1,3 +1,6 @@
+using System.Diagnostics;
+using System.Text;
+using Plumbline.Core.Coherence;
 using Plumbline.Core.Language;
 using Plumbline.Models.Recording;
 using Xunit;
@@ -222,5 +225,159 @@ public sealed class RecordingLanguageModelTests : IDisposable
 
         Assert.Equal(3 * subjects, model.Count);
         Assert.Equal(0, failures);
+    }
+
+    [Fact]
+    public async Task LoadAsync_ThistlewickSample_EveryRequestReplaysWhatAWholeFileParseHolds()
+    {
+        var path = Path.Combine(AppContext.BaseDirectory, "data", "thistlewick", "recording.jsonl");
+
+        // What the loader used to keep in memory: every line as a StreamReader reads it, parsed, the first of any repeats.
+        var expected = new Dictionary<string, RecordedEntry>(StringComparer.Ordinal);
+        var number = 0;
+        foreach (var line in File.ReadLines(path))
+        {
+            number++;
+            if (!string.IsNullOrWhiteSpace(line))
+            {
+                var entry = RecordingReader.ParseLine(path, number, PromptBook.PromptVersion, line);
+                expected.TryAdd(entry.Fingerprint.Key, entry);
+            }
+        }
+
+        await using var model = await RecordingLanguageModel.LoadAsync(path, PromptBook.PromptVersion, CancellationToken.None);
+
+        Assert.Equal(expected.Count, model.Count);
+        Assert.Contains(expected.Values, e => e.GenerationAsked is not null);
+        Assert.Contains(expected.Values, e => e.AnswerAsked is not null);
+        foreach (var entry in expected.Values)
+        {
+            if (entry.GenerationAsked is { } asked)
+            {
+                var result = await model.GenerateAsync(asked, CancellationToken.None);
+                Assert.Equal(entry.Generation!.Texts.Take(asked.Count), result.Texts);
+                Assert.Equal(entry.Generation.Usage, result.Usage);
+            }
+            else
+            {
+                Assert.Equal(entry.Answer, await model.ScoreAnswersAsync(entry.AnswerAsked!, CancellationToken.None));
+            }
+        }
+    }
+
+    [Fact]
+    public async Task LoadAsync_BomCrLfBlankLinesAndMultiByteText_ReplaysEachLineAndNumbersLinesAsAnEditorDoes()
+    {
+        // Lines 1, 3, 5 and 7 hold requests; 2 and 6 are empty, 4 is spaces; the last has no line end.
+        var text = string.Join("\r\n",
+            Requests.AnswerLine("Die Bärin ist groß.", "0.7", "0.3"),
+            "",
+            Requests.AbductionLine("熊は哺乳類です。", true, 2, "子に乳を与える 🐻", "毛がある"),
+            "   ",
+            Requests.AnswerLine("Ça va — naïve café.", "0.25", "0.75"),
+            "",
+            Requests.AbductionLine("Bats are mammals.", false, 1, "they fly 🦇"));
+        var path = temp.File("rec.jsonl");
+        await File.WriteAllBytesAsync(path, [0xEF, 0xBB, 0xBF, .. Encoding.UTF8.GetBytes(text)]);
+
+        var model = await Load(path);
+        var bear = await model.GenerateAsync(Requests.Abduction("熊は哺乳類です。", true, 2), CancellationToken.None);
+        var bats = await model.GenerateAsync(Requests.Abduction("Bats are mammals.", false, 1), CancellationToken.None);
+        var bearMissing = await Assert.ThrowsAsync<ModelRequestException>(() =>
+            model.GenerateAsync(Requests.Abduction("熊は哺乳類です。", true, 3), CancellationToken.None));
+        var batsMissing = await Assert.ThrowsAsync<ModelRequestException>(() =>
+            model.GenerateAsync(Requests.Abduction("Bats are mammals.", false, 2), CancellationToken.None));
+
+        Assert.Equal(4, model.Count);
+        Assert.Equal(0.7, (await model.ScoreAnswersAsync(Requests.Answer("Die Bärin ist groß."), CancellationToken.None)).True);
+        Assert.Equal(0.25, (await model.ScoreAnswersAsync(Requests.Answer("Ça va — naïve café."), CancellationToken.None)).True);
+        Assert.Equal(["子に乳を与える 🐻", "毛がある"], bear.Texts);
+        Assert.Equal(["they fly 🦇"], bats.Texts);
+        Assert.EndsWith("(line 3 has it with other decoding settings, n or sample)", bearMissing.Message, StringComparison.Ordinal);
+        Assert.EndsWith("(line 7 has it with other decoding settings, n or sample)", batsMissing.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task LoadAsync_BomAndCrLfBeforeAMalformedLine_ErrorNamesTheLineAnEditorShows()
+    {
+        var text = Requests.AnswerLine("Bären können schwimmen.", "0.9", "0.1") + "\r\n\r\n" + Requests.AnswerLine("Bats can fly.", "0.9", "x");
+        var path = temp.File("rec.jsonl");
+        await File.WriteAllBytesAsync(path, [0xEF, 0xBB, 0xBF, .. Encoding.UTF8.GetBytes(text)]);
+
+        var error = await Assert.ThrowsAsync<RecordingFormatException>(() => Load(path));
+
+        Assert.StartsWith($"{path}:3: ", error.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task GenerateAsync_ThousandsOfTasksAtOnce_EachReadsItsOwnLine()
+    {
+        // Lines of many lengths with multi-byte text: a read at another line's offset or length could not parse.
+        const int subjects = 300;
+        static string Subject(int i) => $"Statement {i} {new string('é', i)}.";
+        static string Reason(int i) => $"why-{i} {new string('熊', i % 37)}";
+        var lines = Enumerable.Range(0, subjects)
+            .SelectMany(i => new[]
+            {
+                Requests.AbductionLine(Subject(i), true, 1, Reason(i)),
+                Requests.AnswerLine(Subject(i), $"0.{i % 9 + 1}", $"0.{9 - i % 9}"),
+            })
+            .ToArray();
+        var model = await Load(temp.Write("rec.jsonl", lines));
+        var start = new TaskCompletionSource(TaskCreationOptions.RunContinuationsAsynchronously);
+
+        var lookups = Enumerable.Range(0, 3_000).Select(k => Task.Run(async () =>
+        {
+            await start.Task;
+            var i = k * 7 % subjects;
+            var generation = await model.GenerateAsync(Requests.Abduction(Subject(i), true, 1), CancellationToken.None);
+            var answer = await model.ScoreAnswersAsync(Requests.Answer(Subject(i)), CancellationToken.None);
+            return generation.Texts.Single() == Reason(i) && Math.Abs(answer.True - (i % 9 + 1) / 10.0) < 1e-9;
+        })).ToArray();
+        start.SetResult();
+        var results = await Task.WhenAll(lookups);
+
+        Assert.Equal(0, results.Count(ok => !ok));
+    }
+
+    [Fact]
+    public async Task GenerateAsync_FileWrittenOverAfterLoading_FailsSayingItChanged()
+    {
+        var path = temp.Write("rec.jsonl",
+            Requests.AnswerLine("Bats can fly.", "0.9", "0.1"),
+            Requests.AbductionLine("Bats are mammals.", true, 1, "they have fur."));
+        var model = await Load(path);
+
+        // Same lengths, so line 2 still parses where it was, but it now holds another request.
+        await File.WriteAllTextAsync(path, string.Join('\n',
+            Requests.AnswerLine("Bats can fly.", "0.9", "0.1"),
+            Requests.AbductionLine("Cats are mammals.", true, 1, "they have fur.")) + "\n");
+        var error = await Assert.ThrowsAsync<ModelRequestException>(() =>
+            model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 1), CancellationToken.None));
+
+        Assert.Equal("rec.jsonl changed since it was loaded: line 2 no longer holds the request it held; load the recording again", error.Message);
+    }
+
+    [Fact]
+    public async Task LoadAsync_NamedPipe_ReplaysFromACopy()
+    {
+        // A named pipe stands for a shell's <(zcat recording.jsonl.gz): it can be read once, and not by position.
+        var pipe = temp.File("rec.pipe");
+        using (var mkfifo = Process.Start("mkfifo", [pipe]))
+        {
+            await mkfifo.WaitForExitAsync();
+            Assert.Equal(0, mkfifo.ExitCode);
+        }
+
+        var writing = Task.Run(() => File.WriteAllText(pipe,
+            Requests.AnswerLine("Bats can fly.", "0.9", "0.1") + "\n" + Requests.AbductionLine("Bats are mammals.", true, 1, "they have fur.") + "\n"));
+        await using var model = await Load(pipe);
+        await writing;
+
+        var generation = await model.GenerateAsync(Requests.Abduction("Bats are mammals.", true, 1), CancellationToken.None);
+        var answer = await model.ScoreAnswersAsync(Requests.Answer("Bats can fly."), CancellationToken.None);
+
+        Assert.Equal(["they have fur."], generation.Texts);
+        Assert.Equal(0.9, answer.True);
     }
 }
