@@ -1,5 +1,8 @@
 using System.Runtime.InteropServices;
 using Plumbline.Cli;
+using Plumbline.Cli.Hosting;
+
+NativeHeap.LimitArenas();
 
 // SIGINT (Ctrl+C) and SIGTERM ask the run to stop and write what it finished; a second signal ends the process at once.
 using var interrupt = new CancellationTokenSource();

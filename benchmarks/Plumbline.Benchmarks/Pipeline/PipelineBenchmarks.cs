@@ -26,6 +26,8 @@ internal static class PipelineBenchmarks
     {
         if (args is ["--child", var countText])
         {
+            // As plumb's own start does, so that the figures are plumb's.
+            Cli.Hosting.NativeHeap.LimitArenas();
             var count = int.Parse(countText, CultureInfo.InvariantCulture);
             using var folder = new Scratch();
             var claims = PipelineRun.Claims(count);
