@@ -7,6 +7,7 @@ return name switch
 {
     "engine" => await EngineOverhead.RunAsync(options, Console.Out, Console.Error),
     "nli" => await Plumbline.Benchmarks.NliBenchmark.RunAsync(options, Console.Out, Console.Error),
+    "calibrate" => await Plumbline.Benchmarks.NliCalibration.RunAsync(options, Console.Out, Console.Error),
     "pipeline-memory" => await Plumbline.Benchmarks.Pipeline.PipelineBenchmarks.MemoryAsync(options, Console.Out, Console.Error),
     "pipeline-throughput" => await Plumbline.Benchmarks.Pipeline.PipelineBenchmarks.ThroughputAsync(options, Console.Out, Console.Error),
     "trees" => await Plumbline.Benchmarks.Trees.TreeGridBenchmark.RunAsync(options, Console.Out, Console.Error),
@@ -27,6 +28,7 @@ static int Usage(string name)
     Console.Error.WriteLine("  pipeline-memory [--claims N M]   peak RSS of whole runs of N and M generated claims (default 1000, 10000), side by side");
     Console.Error.WriteLine("  pipeline-throughput [--claims N] [--in-flight K]   claims/min on full-size trees with the shipped NLI model; time shares");
     Console.Error.WriteLine("  nli [--model DIR] [--pairs N] [--batch N] [--runs N]   NLI scorer pairs/s against session.Run alone; cold start");
+    Console.Error.WriteLine("  calibrate --model DIR --fit FILE --check FILE   fit an NLI model's calibration temperature with the C# scorer; NLL and ECE before and after");
     Console.Error.WriteLine("  trees --trees DIR [--nli-model DIR] [--cache DIR] [--grid defaults|full] [--workers N] [--limit N] [--check-solver]");
     Console.Error.WriteLine("        the engine over recorded trees with gold labels: accuracies, overturns, link health; NLI scores cached per model");
     Console.Error.WriteLine("  local [--model DIR] [--threads N] [--runs N] [--claims N] [--tokens N]   local model: load, memory, tokens/s, answer time, calls per claim");

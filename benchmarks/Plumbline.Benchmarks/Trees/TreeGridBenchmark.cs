@@ -26,11 +26,11 @@ namespace Plumbline.Benchmarks.Trees;
 internal static class TreeGridBenchmark
 {
     private const string Usage =
-        "trees --trees DIR [--nli-model DIR] [--cache DIR] [--grid defaults|full] [--workers N] [--limit N] [--check-solver]";
+        "trees --trees DIR [--nli-model DIR] [--against DIR] [--cache DIR] [--grid defaults|full] [--workers N] [--limit N] [--check-solver]";
 
     public static async Task<int> RunAsync(string[] args, TextWriter output, TextWriter error)
     {
-        string? trees = null, nliModel = null, cacheFolder = null;
+        string? trees = null, nliModel = null, cacheFolder = null, against = null;
         var grid = "defaults";
         int workers = 2, limit = int.MaxValue;
         var checkSolver = false;
@@ -42,6 +42,7 @@ internal static class TreeGridBenchmark
             {
                 case "--trees" when next is not null: trees = next; i++; break;
                 case "--nli-model" when next is not null: nliModel = next; i++; break;
+                case "--against" when next is not null: against = next; i++; break;
                 case "--cache" when next is not null: cacheFolder = next; i++; break;
                 case "--grid" when next is "defaults" or "full": grid = next; i++; break;
                 case "--workers" when count is { } n: workers = n; i++; break;
@@ -115,6 +116,21 @@ internal static class TreeGridBenchmark
                 $"link health (default tree rules, integrity gap {defaults.IntegrityGap:0.##}, own texts, most likely label):"));
             output.WriteLine($"  same-answer first-level explanation pairs linked as contradiction: {Share(links.SameAnswerContradictions, links.SameAnswerLinks)} ({links.SameAnswerContradictions} of {links.SameAnswerLinks} non-neutral links)");
             output.WriteLine($"  claim-explanation links against the answer the explanation was written for: {Share(links.ClaimLinksAgainst, links.ClaimLinks)} ({links.ClaimLinksAgainst} of {links.ClaimLinks})");
+
+            if (against is not null)
+            {
+                // Another NLI model (say, the shipped one against a candidate) with the same defaults, claim by claim.
+                using var other = NliModel.Load(against);
+                var otherCache = ScoreCache.Open(cacheFolder, other.ModelSha256, other.Card.Temperature);
+                await FillCacheAsync(claims, recording, other, otherCache, [new GridCell(defaults)], workers, output, error);
+                var otherVerdicts = await JudgeAllAsync(claims, new CoherenceEngine(recording, new CachedScorer(otherCache, other.Describe, planning: false), solver, defaults, TimeProvider.System), workers);
+                var otherRight = otherVerdicts.Select(v => v.Answer == v.Claim.Gold).ToArray();
+                var thisRight = results.Single(r => r.Cell.Options == defaults).Right;
+                var (onlyThis, onlyOther) = (Discordant(thisRight, otherRight), Discordant(otherRight, thisRight));
+                output.WriteLine();
+                output.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                    $"against {other.Describe} with the defaults: coherent {Percent(CellFigures.Of(otherVerdicts).Coherent)}; {onlyThis} claims right only with this model, {onlyOther} only with that one, McNemar p = {McNemar(onlyThis, onlyOther):0.000}"));
+            }
 
             if (checkSolver)
             {
