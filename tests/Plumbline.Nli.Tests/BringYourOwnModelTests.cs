@@ -84,15 +84,17 @@ public sealed class BringYourOwnModelTests
         using var fromCard = OnnxEntailmentScorer.Load(RepositoryModel.Directory);
         SentencePair[] pairs = [new("Naïve résumé écrit à Zürich", "NAÏVE RÉSUMÉ"), new("A dog runs.", "An animal moves.")];
 
-        var expected = await fromCard.ScoreAsync(pairs, CancellationToken.None);
-        var actual = await fromConfig.ScoreAsync(pairs, CancellationToken.None);
+        // Logits, not probabilities: our card also carries a calibration temperature, which config.json does not.
+        var expected = await fromCard.ScorePairsAsync(pairs, CancellationToken.None);
+        var actual = await fromConfig.ScorePairsAsync(pairs, CancellationToken.None);
 
         Assert.Equal(128, fromConfig.Model.Card.MaxLength);
         Assert.True(fromConfig.Model.Card.LowerCase);
+        Assert.Equal(1.0, fromConfig.Model.Card.Temperature);
         Assert.Equal(fromCard.Model.Encode(pairs[0]).InputIds, fromConfig.Model.Encode(pairs[0]).InputIds);
         for (var i = 0; i < pairs.Length; i++)
         {
-            Assert.Equal(expected[i].Entailment, actual[i].Entailment, 1e-6);
+            Assert.Equal(expected[i].Logits, actual[i].Logits);
         }
     }
 
