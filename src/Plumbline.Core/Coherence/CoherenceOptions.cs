@@ -28,8 +28,12 @@ public sealed record CoherenceOptions(
     /// <summary>How a belief becomes a unit clause's weight.</summary>
     public BeliefForm BeliefForm { get; init; } = BeliefForm.Ratio;
 
-    /// <summary>A link needs at least this NLI probability for its kind; weaker readings count as neutral.</summary>
-    public double LinkFloor { get; init; }
+    /// <summary>
+    /// A link needs at least this NLI probability for its kind; weaker readings count as neutral. The defaults of
+    /// this and of <see cref="NliText"/> and <see cref="ClaimBelief"/> were chosen on the CSQA2 trees benchmark by the
+    /// rule in docs/engine-settings.md, with the default NLI model.
+    /// </summary>
+    public double LinkFloor { get; init; } = 0.8;
 
     /// <summary>What happens to a pair read as entailment one way and contradiction the other.</summary>
     public ConflictRule Conflicts { get; init; } = ConflictRule.Keep;
@@ -38,7 +42,7 @@ public sealed record CoherenceOptions(
     public ContradictionCount Contradictions { get; init; } = ContradictionCount.EachDirection;
 
     /// <summary>Which text stands for a statement in NLI pairs.</summary>
-    public NliText NliText { get; init; } = NliText.Statement;
+    public NliText NliText { get; init; } = NliText.NegationWhenFalse;
 
     /// <summary>Explanations that do not end a sentence (cut off by the token limit) are dropped and counted.</summary>
     public bool DiscardCutOff { get; init; } = true;
@@ -47,7 +51,7 @@ public sealed record CoherenceOptions(
     public bool ExpandIntegralClaim { get; init; } = true;
 
     /// <summary>Adds the claim's own belief (its answer probabilities for the claim and its negation) as a unit clause.</summary>
-    public bool ClaimBelief { get; init; }
+    public bool ClaimBelief { get; init; } = true;
 
     /// <summary>Which direct answer the status and a tie compare with.</summary>
     public DirectAnswerRule DirectAnswer { get; init; } = DirectAnswerRule.Plain;

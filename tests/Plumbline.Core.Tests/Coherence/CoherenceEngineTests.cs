@@ -13,7 +13,14 @@ namespace Plumbline.Core.Tests.Coherence;
 public sealed class CoherenceEngineTests
 {
     // The scripted texts ("A", "B") are not sentences; these tests are not about the cut-off rule.
-    private static readonly CoherenceOptions OneLevel = CoherenceOptions.Default with
+    /// <summary>
+    /// The hand-computed examples here assume the plain method: no link floor, no unit clause for the claim's own
+    /// belief, every statement scored by its own text (the defaults chosen on the trees benchmark add those).
+    /// </summary>
+    private static readonly CoherenceOptions PlainMethod =
+        CoherenceOptions.Default with { LinkFloor = 0, ClaimBelief = false, NliText = NliText.Statement };
+
+    private static readonly CoherenceOptions OneLevel = PlainMethod with
     {
         Shape = new TreeShape([new LevelShape(1, Decoding.Greedy())]),
         DiscardCutOff = false,
@@ -372,7 +379,7 @@ public sealed class CoherenceEngineTests
     {
         var model = ScriptedModel.Growing(s => s.StartsWith("Not: ", StringComparison.Ordinal) ? 0.3 : 0.6, TimeSpan.FromMilliseconds(40));
 
-        var verdict = await Engine(model, new ScriptedScorer(), CoherenceOptions.Default with { DiscardCutOff = false }).JudgeAsync(Claim, CancellationToken.None);
+        var verdict = await Engine(model, new ScriptedScorer(), PlainMethod with { DiscardCutOff = false }).JudgeAsync(Claim, CancellationToken.None);
 
         Assert.NotEqual(ClaimStatus.Failed, verdict.Status);
         Assert.True(model.MaxInFlight > 1, $"only {model.MaxInFlight} request in flight at a time");
