@@ -66,10 +66,8 @@ internal static class NliCalibration
     private static double Ece(List<double[]> logits, List<int> gold, double temperature) =>
         CalibrationBins.ExpectedCalibrationError(logits.Select((row, i) =>
         {
-            var scaled = row.Select(l => l / temperature).ToArray();
-            var largest = scaled.Max();
-            var exps = scaled.Select(l => Math.Exp(l - largest)).ToArray();
-            var best = Array.IndexOf(scaled, largest);
-            return (exps[best] / exps.Sum(), best == gold[i]);
+            var probabilities = TemperatureFit.Probabilities(row, temperature);
+            var best = Array.IndexOf(probabilities, probabilities.Max());
+            return (probabilities[best], best == gold[i]);
         }).ToArray());
 }

@@ -46,6 +46,16 @@ public static class TemperatureFit
         return Math.Exp((a + b) / 2);
     }
 
+    /// <summary>softmax(logits / T), shifted by the largest logit so no exponent overflows.</summary>
+    public static double[] Probabilities(double[] logits, double temperature)
+    {
+        ArgumentNullException.ThrowIfNull(logits);
+        var largest = logits.Max();
+        var exps = logits.Select(logit => Math.Exp((logit - largest) / temperature)).ToArray();
+        var sum = exps.Sum();
+        return [.. exps.Select(e => e / sum)];
+    }
+
     /// <summary>Mean negative log-likelihood of the gold classes under softmax(logits / T).</summary>
     public static double NegativeLogLikelihood(IReadOnlyList<double[]> logits, IReadOnlyList<int> gold, double temperature)
     {

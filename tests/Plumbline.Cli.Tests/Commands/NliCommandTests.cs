@@ -106,16 +106,19 @@ public sealed class NliCommandTests
             Row("A cat sits on the mat.", "A cat is on the mat.", "-")));
     }
 
+    /// <summary><c>plumb nli --eval</c> on <see cref="EvalFile"/> with JSON output; the command must succeed.</summary>
+    private static async Task<JsonDocument> EvalJsonAsync()
+    {
+        using var folder = new TempDirectory();
+        var result = await Plumb.RunAsync("nli", "--eval", EvalFile(folder), "--format", "json");
+        Assert.True(result.ExitCode == 0, result.ToString());
+        return JsonDocument.Parse(result.Output);
+    }
+
     [Fact]
     public async Task NliEval_LabelledPairs_ReportsConsistentCountsAccuracyAndTruncation()
     {
-        using var folder = new TempDirectory();
-        var file = EvalFile(folder);
-
-        var result = await Plumb.RunAsync("nli", "--eval", file, "--format", "json");
-
-        Assert.True(result.ExitCode == 0, result.ToString());
-        using var json = JsonDocument.Parse(result.Output);
+        using var json = await EvalJsonAsync();
         var root = json.RootElement;
         Assert.Equal(6, root.GetProperty("pairs").GetInt32());
         Assert.Equal(1, root.GetProperty("skipped_unlabelled").GetInt32());
@@ -150,13 +153,7 @@ public sealed class NliCommandTests
     [Fact]
     public async Task NliEval_FalseContradictionRate_IsContradictionReadingsOfNonContradictionGold()
     {
-        using var folder = new TempDirectory();
-        var file = EvalFile(folder);
-
-        var result = await Plumb.RunAsync("nli", "--eval", file, "--format", "json");
-
-        Assert.True(result.ExitCode == 0, result.ToString());
-        using var json = JsonDocument.Parse(result.Output);
+        using var json = await EvalJsonAsync();
         var root = json.RootElement;
         var confusion = root.GetProperty("confusion");
         var wrong = confusion.GetProperty("entailment").GetProperty("contradiction").GetInt32()
