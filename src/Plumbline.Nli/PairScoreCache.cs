@@ -6,14 +6,15 @@ namespace Plumbline.Nli;
 /// A bounded cache of scored pairs: two generations, the newest taking every store. When it holds half the
 /// capacity it becomes the old generation and the one before is dropped; a hit in the old generation moves
 /// the pair forward. So memory stays under the capacity however long a run is, and pairs still in use
-/// (statements recur across the trees of nearby claims) survive. Thread-safe.
+/// (statements recur across the trees of nearby claims) survive. Pairs are keyed by their hash (<see cref="PairKey"/>),
+/// so the cache keeps no statement text alive. Thread-safe.
 /// </summary>
 internal sealed class PairScoreCache
 {
     private readonly int generationSize;
     private readonly Lock gate = new();
-    private Dictionary<SentencePair, ScoredPair> current = [];
-    private Dictionary<SentencePair, ScoredPair> previous = [];
+    private Dictionary<UInt128, ScoredPair> current = [];
+    private Dictionary<UInt128, ScoredPair> previous = [];
 
     public PairScoreCache(int capacity)
     {
@@ -34,16 +35,17 @@ internal sealed class PairScoreCache
 
     public bool TryGet(SentencePair pair, out ScoredPair scored)
     {
+        var key = PairKey.Of(pair);
         lock (gate)
         {
-            if (current.TryGetValue(pair, out scored!))
+            if (current.TryGetValue(key, out scored!))
             {
                 return true;
             }
 
-            if (previous.Remove(pair, out scored!))
+            if (previous.Remove(key, out scored!))
             {
-                Store(pair, scored);
+                Store(key, scored);
                 return true;
             }
 
@@ -54,22 +56,23 @@ internal sealed class PairScoreCache
     /// <summary>Stores a pair unless another caller stored it first; returns the stored value, so every caller sees identical scores.</summary>
     public ScoredPair GetOrAdd(SentencePair pair, ScoredPair scored, out bool added)
     {
+        var key = PairKey.Of(pair);
         lock (gate)
         {
-            if (current.TryGetValue(pair, out var known) || previous.Remove(pair, out known))
+            if (current.TryGetValue(key, out var known) || previous.Remove(key, out known))
             {
-                Store(pair, known);
+                Store(key, known);
                 added = false;
                 return known;
             }
 
-            Store(pair, scored);
+            Store(key, scored);
             added = true;
             return scored;
         }
     }
 
-    private void Store(SentencePair pair, ScoredPair scored)
+    private void Store(UInt128 key, ScoredPair scored)
     {
         if (current.Count >= generationSize)
         {
@@ -77,6 +80,6 @@ internal sealed class PairScoreCache
             current = [];
         }
 
-        current[pair] = scored;
+        current[key] = scored;
     }
 }
