@@ -494,3 +494,28 @@ def generate_negation_crossings(train, seed, quotas):
 
     take("negation_respelled", "entailment", respelled(), quotas["negation_respelled"])
     return out
+
+
+def generate_siblings(train, seed, quota):
+    """Two hypotheses written for one premise, one it entails and one it leaves open, paired with each other:
+    neutral, never contradiction. Any situation where the premise and the open hypothesis both hold also makes
+    the entailed one hold, so the two can be true together. They are what an explanation tree is full of: two
+    statements about the same thing with different details, both compatible. Train premises only."""
+    rng = random.Random(seed + 4)
+    names = ("snli_test", "mnli_mismatched", "mnli_sni", "taxinli_rest")
+    by_premise = {}
+    for name in names:
+        for p, h, l in train.get(name, []):
+            by_premise.setdefault(p, {}).setdefault(l, []).append(h)
+    out = []
+    premises = sorted(by_premise)
+    rng.shuffle(premises)
+    for p in premises:
+        if len(out) >= quota:
+            break
+        labels = by_premise[p]
+        if "entailment" in labels and "neutral" in labels:
+            e, n = rng.choice(labels["entailment"]), rng.choice(labels["neutral"])
+            if e != n and 2 <= len(e.split()) <= 25 and 2 <= len(n.split()) <= 25:
+                out.append((e, n, "neutral", "sibling") if rng.random() < 0.5 else (n, e, "neutral", "sibling"))
+    return out

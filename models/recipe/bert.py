@@ -62,10 +62,9 @@ class PairClassifier(nn.Module):
         return self.head(self.dropout(pooled))
 
 
-def load_base_weights(model, onnx_path):
-    """Copy the encoder weights out of the ONNX graph. Named initializers map directly; the MatMul
-    weights are anonymous and stored [in, out], so each is named after the bias of the Add that
-    consumes its output."""
+def graph_weights(onnx_path):
+    """(graph, initializers by name, weights by parameter name). Named initializers map directly; MatMul weights
+    are anonymous and stored [in, out], so each is named after the bias of the Add that consumes its output."""
     graph = onnx.load(onnx_path).graph
     arrays = {i.name: numpy_helper.to_array(i) for i in graph.initializer}
     consumers = {}
@@ -78,6 +77,13 @@ def load_base_weights(model, onnx_path):
             add = next(n for n in consumers[node.output[0]] if n.op_type == "Add")
             bias = next(i for i in add.input if i in arrays)
             named[bias[: -len(".bias")] + ".weight"] = arrays[node.input[1]].T
+    return graph, arrays, named
+
+
+def load_base_weights(model, onnx_path):
+    """Copy the encoder weights out of the base model's ONNX graph (graph_weights names them)."""
+    graph, arrays, named = graph_weights(onnx_path)
+    for node in graph.node:
         if node.op_type == "Gemm":
             w, bias = node.input[1], node.input[2]
             transposed = any(a.name == "transB" and a.i == 1 for a in node.attribute)
@@ -109,4 +115,24 @@ def load_base_weights(model, onnx_path):
         put(layer.ffn_norm.bias, p + "output.LayerNorm.bias")
     put(model.pooler.weight, "pooler.dense.weight")
     put(model.pooler.bias, "pooler.dense.bias")
+    return model
+
+
+def load_exported_weights(model, onnx_path):
+    """Copy every weight, the classification head included, out of an fp32 graph that export.py wrote for
+    this PairClassifier, so a run can continue from a shipped or candidate model. Biases and norms keep their
+    parameter names in the graph; MatMul weights are anonymous and stored [in, out], so each is named after
+    the bias of the Add that consumes its output; Gemm (pooler, head) carries its bias as third input."""
+    graph, arrays, named = graph_weights(onnx_path)
+    named = {k: v for k, v in named.items() if not k.startswith("onnx::")}
+    for node in graph.node:
+        if node.op_type == "Gemm":
+            transposed = any(a.name == "transB" and a.i == 1 for a in node.attribute)
+            w = arrays[node.input[1]]
+            named[node.input[2][: -len(".bias")] + ".weight"] = w if transposed else w.T
+    state = model.state_dict()
+    missing = sorted(set(state) - set(named))
+    if missing:
+        raise ValueError(f"{onnx_path}: no weights for {missing}")
+    model.load_state_dict({k: torch.from_numpy(np.ascontiguousarray(named[k])).float() for k in state})
     return model

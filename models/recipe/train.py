@@ -12,8 +12,8 @@ import time
 
 import torch
 
-from augment import generate, generate_negation_crossings, generate_restatements, held_out_added_detail
-from bert import PairClassifier, load_base_weights
+from augment import generate, generate_negation_crossings, generate_restatements, generate_siblings, held_out_added_detail
+from bert import PairClassifier, load_base_weights, load_exported_weights
 from negation_eval import negation_pairs
 from nli_files import LABELS, evaluate_sources, extra_evaluate_sources, extra_train_sources, train_sources
 from tree_pairs import tree_link_health
@@ -158,6 +158,8 @@ def main():
     ap.add_argument("--holdout", type=int, default=3000, help="labelled pairs kept out of training for calibration")
     ap.add_argument("--trees", help="a tree recording (evaluation only) whose link health is printed per epoch")
     ap.add_argument("--checkpoints", type=int, default=2, help="checkpoints per epoch")
+    ap.add_argument("--siblings", type=int, default=6000, help="sibling-hypothesis pairs (augment.generate_siblings)")
+    ap.add_argument("--init", help="an fp32 graph export.py wrote (model-fp32.onnx) to continue from, head included")
     args = ap.parse_args()
 
     torch.manual_seed(args.seed)
@@ -190,6 +192,8 @@ def main():
         pairs += [g for g in generate_restatements(train, args.seed, restatement_quotas) if g[3] not in args.drop]
         crossing_quotas = {k: (0 if k in args.drop else v) for k, v in CROSSING_QUOTAS.items()}
         pairs += [g for g in generate_negation_crossings(train, args.seed, crossing_quotas) if g[3] not in args.drop]
+    if "sibling" not in args.drop:
+        pairs += generate_siblings(train, args.seed, args.siblings)
     pairs = [x for x in pairs if (x[0], x[1]) not in held_keys]
     counts = collections.Counter(name for *_, name in pairs)
     note(event="data", counts=counts, total=len(pairs), drop=args.drop, seed=args.seed)
@@ -204,7 +208,13 @@ def main():
         from tree_pairs import read_tree_pairs
         trees = read_tree_pairs(args.trees, sample=400, seed=args.seed)
 
-    model = load_base_weights(PairClassifier(), os.path.join(args.base, "model.onnx"))
+    if args.init:
+        # A continued run: same data split (same seed), but the batches in a new order.
+        model = load_exported_weights(PairClassifier(), args.init)
+        rng = random.Random(args.seed + 1000)
+        note(event="init", file=args.init, **sample_scores(model, tokenizer, monitors, args.max_len, trees))
+    else:
+        model = load_base_weights(PairClassifier(), os.path.join(args.base, "model.onnx"))
     model.train()
     # The word-embedding table is frozen: it is most of the parameters, its update dominates a CPU step,
     # and the augmentations rely on the pretrained relations between words.
