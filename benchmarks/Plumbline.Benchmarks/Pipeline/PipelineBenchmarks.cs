@@ -24,29 +24,32 @@ internal static class PipelineBenchmarks
 
     public static async Task<int> MemoryAsync(string[] args, TextWriter output, TextWriter error)
     {
-        if (args is ["--child", var countText])
+        if (args is ["--child", var countText, var recordingPath, var folderPath])
         {
             // As plumb's own start does, so that the figures are plumb's.
             Cli.Hosting.NativeHeap.LimitArenas();
             var count = int.Parse(countText, CultureInfo.InvariantCulture);
-            using var folder = new Scratch();
-            var claims = PipelineRun.Claims(count);
-            var recording = Path.Combine(folder.Path, "recording.jsonl");
-            await PipelineRun.RecordAsync(recording, new SmallTreeModel(), claims, SmallTrees);
             var watch = Stopwatch.StartNew();
-            var outcome = await PipelineRun.JudgeAsync(recording, claims, SmallTrees, folder.Path, inFlight: 4);
+            var outcome = await PipelineRun.JudgeAsync(recordingPath, PipelineRun.Claims(count), SmallTrees, folderPath, inFlight: 4);
+            var peak = PipelineRun.PeakResidentMiB();
+            var committed = GC.GetGCMemoryInfo().TotalCommittedBytes / 1048576.0;
+            var live = GC.GetTotalMemory(forceFullCollection: true) / 1048576.0;
             output.WriteLine(FormattableString.Invariant(
-                $"{count}\t{PipelineRun.PeakResidentMiB():0.0}\t{watch.Elapsed.TotalSeconds:0.0}\t{outcome.Report.Figures.Judged}\t{new FileInfo(Path.Combine(folder.Path, "report.html")).Length / 1048576.0:0.0}"));
+                $"{count}\t{peak:0.0}\t{live:0.0}\t{committed:0.0}\t{watch.Elapsed.TotalSeconds:0.0}\t{outcome.Report.Figures.Judged}\t{new FileInfo(Path.Combine(folderPath, "report.html")).Length / 1048576.0:0.0}"));
             return outcome.Report.Figures.Judged == count ? 0 : 1;
         }
 
         var sizes = args is ["--claims", var a, var b] ? new[] { int.Parse(a, CultureInfo.InvariantCulture), int.Parse(b, CultureInfo.InvariantCulture) } : [1_000, 10_000];
         output.WriteLine("pipeline-memory: whole runs in separate processes (recorded answers, shipped NLI model, CP-SAT, json + html + jsonl reports)");
-        output.WriteLine("claims\tpeak RSS MiB\twall s\tjudged\thtml MiB");
+        output.WriteLine("claims\tpeak RSS MiB\tlive managed MiB (after a full GC at the end)\tmanaged committed MiB at the end\twall s\tjudged\thtml MiB");
         var peaks = new List<double>();
         foreach (var size in sizes)
         {
-            var line = await ChildAsync(["pipeline-memory", "--child", size.ToString(CultureInfo.InvariantCulture)], error);
+            // The recording is made here, so that the child process holds only what a run of plumb holds.
+            using var folder = new Scratch();
+            var recording = Path.Combine(folder.Path, "recording.jsonl");
+            await PipelineRun.RecordAsync(recording, new SmallTreeModel(), PipelineRun.Claims(size), SmallTrees);
+            var line = await ChildAsync(["pipeline-memory", "--child", size.ToString(CultureInfo.InvariantCulture), recording, folder.Path], error);
             if (line is null)
             {
                 return 1;
@@ -125,7 +128,7 @@ internal static class PipelineBenchmarks
         await child.WaitForExitAsync();
         if (child.ExitCode != 0)
         {
-            await error.WriteLineAsync($"pipeline-memory: the run of {args[^1]} claims failed (exit {child.ExitCode})");
+            await error.WriteLineAsync($"pipeline-memory: the run of {args[2]} claims failed (exit {child.ExitCode})");
             return null;
         }
 

@@ -46,7 +46,8 @@ internal static class PipelineRun
         var engine = new CoherenceEngine(model, scorer, solver, options, TimeProvider.System);
         var settings = RunSettings.From(options, model.Describe, scorer.Describe, solver.Describe, seed: null);
         var run = new ClaimRun(engine, settings, TimeProvider.System, new RunOptions("benchmark", inFlight));
-        var sinks = new List<IRunSink>();
+        // As plumb's composition root does.
+        var sinks = new List<IRunSink> { new Cli.Hosting.HeapTrimSink() };
         foreach (var format in new[] { "json", "html", "jsonl" })
         {
             var writer = ReportWriterRegistry.Default.Create(format);

@@ -1,6 +1,7 @@
 using Plumbline.Application.Input;
 using Plumbline.Application.Running;
 using Plumbline.Application.Sinks;
+using Plumbline.Cli.Hosting;
 using Plumbline.Cli.Options;
 using Plumbline.Core.Coherence;
 using Plumbline.Core.Entailment;
@@ -103,7 +104,7 @@ internal sealed class CompositionRoot
                 settings.InFlight,
                 settings.Verbose ? PairListing.All : PairListing.Linked));
 
-            var sinks = new List<IRunSink> { diagnostics };
+            var sinks = new List<IRunSink> { diagnostics, new HeapTrimSink() };
             if (export is not null)
             {
                 sinks.Add(export);

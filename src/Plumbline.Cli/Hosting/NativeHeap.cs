@@ -42,7 +42,29 @@ public static class NativeHeap
         }
     }
 
+    /// <summary>Hands free memory at the top of glibc's heaps back to the system (<c>malloc_trim(0)</c>); returns whether
+    /// any was. Elsewhere than glibc on Linux it does nothing.</summary>
+    public static bool Trim()
+    {
+        if (!OperatingSystem.IsLinux())
+        {
+            return false;
+        }
+
+        try
+        {
+            return MallocTrim(0) == 1;
+        }
+        catch (Exception e) when (e is DllNotFoundException or EntryPointNotFoundException)
+        {
+            return false;
+        }
+    }
+
     // DllImport rather than LibraryImport: the latter needs unsafe code allowed in the project for one int call.
     [DllImport("libc.so.6", EntryPoint = "mallopt")]
     private static extern int MallOpt(int parameter, int value);
+
+    [DllImport("libc.so.6", EntryPoint = "malloc_trim")]
+    private static extern int MallocTrim(nuint pad);
 }
