@@ -30,13 +30,13 @@ public sealed record CoherenceOptions(
 
     /// <summary>
     /// A link needs at least this NLI probability for its kind; weaker readings count as neutral. The defaults of
-    /// this and of <see cref="NliText"/> and <see cref="ClaimBelief"/> were chosen on the CSQA2 trees benchmark by the
-    /// rule in docs/engine-settings.md, with the default NLI model.
+    /// this and of <see cref="Conflicts"/>, <see cref="NliText"/> and <see cref="ClaimBelief"/> were chosen on the
+    /// CSQA2 trees benchmark by the rule in docs/engine-settings.md, with the default NLI model.
     /// </summary>
-    public double LinkFloor { get; init; } = 0.8;
+    public double LinkFloor { get; init; } = 0.6;
 
     /// <summary>What happens to a pair read as entailment one way and contradiction the other.</summary>
-    public ConflictRule Conflicts { get; init; } = ConflictRule.Keep;
+    public ConflictRule Conflicts { get; init; } = ConflictRule.Drop;
 
     /// <summary>Whether a contradiction adds a clause per direction or one per unordered pair.</summary>
     public ContradictionCount Contradictions { get; init; } = ContradictionCount.EachDirection;

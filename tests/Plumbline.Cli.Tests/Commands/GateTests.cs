@@ -6,7 +6,7 @@ namespace Plumbline.Cli.Tests.Commands;
 
 /// <summary>
 /// Gates on the demo run, whose figures were checked by hand (samples/thistlewick/EXPECTED.md): coherent accuracy
-/// 9 of 12 = 0.75, direct accuracy 8 of 12 = 0.6667, overturn rate 1 of 12 = 0.0833.
+/// 10 of 12 = 0.8333, direct accuracy 8 of 12 = 0.6667, overturn rate 2 of 12 = 0.1667.
 /// </summary>
 public sealed class GateTests
 {
@@ -21,15 +21,15 @@ public sealed class GateTests
         var result = await Plumb.RunAsync(
         [
             "sweep", Sample("claims.jsonl"), "--model", "recording:" + Sample("recording.jsonl"), "--quiet",
-            "--min-coherent-accuracy", "0.75", "--max-overturn-rate", "0.05", "--min-direct-accuracy", "0.6666",
+            "--min-coherent-accuracy", "0.8", "--max-overturn-rate", "0.05", "--min-direct-accuracy", "0.6666",
             .. formats.SelectMany(f => new[] { "--report", $"{f}:{folder.File("report." + f)}" }),
         ]);
 
         Assert.True(result.ExitCode == 1, result.ToString());
         string Read(string format) => File.ReadAllText(folder.File("report." + format));
 
-        Assert.Contains("    pass  min_coherent_accuracy = 0.75 (wanted >= 0.75)\n", Read("text"), StringComparison.Ordinal);
-        Assert.Contains("    FAIL  max_overturn_rate = 0.0833 (wanted <= 0.05)\n", Read("text"), StringComparison.Ordinal);
+        Assert.Contains("    pass  min_coherent_accuracy = 0.8333 (wanted >= 0.8)\n", Read("text"), StringComparison.Ordinal);
+        Assert.Contains("    FAIL  max_overturn_rate = 0.1667 (wanted <= 0.05)\n", Read("text"), StringComparison.Ordinal);
         Assert.Contains("    pass  min_direct_accuracy = 0.6667 (wanted >= 0.6666)\n", Read("text"), StringComparison.Ordinal);
 
         using var json = JsonDocument.Parse(Read("json"));
@@ -38,9 +38,9 @@ public sealed class GateTests
         Assert.Equal("summary", summary.GetProperty("record").GetString());
         AssertGates(summary.GetProperty("gates"));
 
-        Assert.Contains("| max_overturn_rate | 0.0833 | &lt;= 0.05 | **fail** |", Read("md"), StringComparison.Ordinal);
-        Assert.Contains("| min_coherent_accuracy | 0.75 | >= 0.75 | pass |", Read("md"), StringComparison.Ordinal);
-        Assert.Contains("<tr class=\"fail\"><td>max_overturn_rate</td><td>0.0833</td><td>&lt;= 0.05</td><td>fail</td></tr>", Read("html"), StringComparison.Ordinal);
+        Assert.Contains("| max_overturn_rate | 0.1667 | &lt;= 0.05 | **fail** |", Read("md"), StringComparison.Ordinal);
+        Assert.Contains("| min_coherent_accuracy | 0.8333 | >= 0.8 | pass |", Read("md"), StringComparison.Ordinal);
+        Assert.Contains("<tr class=\"fail\"><td>max_overturn_rate</td><td>0.1667</td><td>&lt;= 0.05</td><td>fail</td></tr>", Read("html"), StringComparison.Ordinal);
 
         var suite = XDocument.Parse(Read("junit")).Descendants("testsuite").Single(s => (string?)s.Attribute("name") == "plumb gates");
         Assert.Equal(["min_coherent_accuracy", "min_direct_accuracy", "max_overturn_rate"], suite.Elements("testcase").Select(c => (string?)c.Attribute("name")));
@@ -51,8 +51,8 @@ public sealed class GateTests
     {
         var byName = gates.EnumerateArray().ToDictionary(g => g.GetProperty("name").GetString()!);
         Assert.Equal(3, byName.Count);
-        Assert.Equal((0.75, ">=", 0.75, true), Fields(byName["min_coherent_accuracy"]));
-        Assert.Equal((0.0833, "<=", 0.05, false), Fields(byName["max_overturn_rate"]));
+        Assert.Equal((0.8333, ">=", 0.8, true), Fields(byName["min_coherent_accuracy"]));
+        Assert.Equal((0.1667, "<=", 0.05, false), Fields(byName["max_overturn_rate"]));
         Assert.Equal((0.6667, ">=", 0.6666, true), Fields(byName["min_direct_accuracy"]));
     }
 

@@ -10,7 +10,7 @@ namespace Plumbline.Cli.Tests.EndToEnd;
 /// </summary>
 public sealed class SampleFormatsTests(SampleSweep sweep) : IClassFixture<SampleSweep>
 {
-    public static TheoryData<string> HandChecked => ["blender-online", "toaster-slots"];
+    public static TheoryData<string> HandChecked => ["blender-jug", "toaster-slots"];
 
     private static (bool Direct, bool Answer, string Status, double Margin) Expected(string id)
     {

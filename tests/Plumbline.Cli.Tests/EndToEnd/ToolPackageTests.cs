@@ -45,9 +45,9 @@ public sealed class ToolPackageTests
         using var report = JsonDocument.Parse(demo.Output);
         Assert.Equal(12, ReportJson.Ids(report).Count);
         Assert.StartsWith("plumbline-nli-minilm-l6-int8", report.RootElement.GetProperty("settings").GetProperty("nli_model").GetString(), StringComparison.Ordinal);
-        // Hand-checked in samples/thistlewick/EXPECTED.md: the online-sales claim is overturned to false.
-        Assert.Equal("overturned", ReportJson.Status(report, "blender-online"));
-        Assert.False(ReportJson.Claim(report, "blender-online").GetProperty("answer").GetBoolean());
+        // Hand-checked in samples/thistlewick/EXPECTED.md: the blender jug claim is overturned to false.
+        Assert.Equal("overturned", ReportJson.Status(report, "blender-jug"));
+        Assert.False(ReportJson.Claim(report, "blender-jug").GetProperty("answer").GetBoolean());
     }
 
     private static async Task<PlumbResult> RunAsync(string workingDirectory, IReadOnlyDictionary<string, string>? environment, string program, params string[] args)
