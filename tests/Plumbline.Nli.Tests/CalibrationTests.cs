@@ -23,7 +23,7 @@ public sealed class CalibrationTests(ModelFixture fixture)
 
     /// <summary>
     /// The C# scorer's figure is the card's (recorded as scorer_sample_ece_after); the recipe's int8 emulation
-    /// gets within 0.02 of it, the logits differing by up to 0.065 (LogitParityTests) and so moving a few pairs
+    /// gets within 0.02 of it, the logits differing by a few hundredths (LogitParityTests) and so moving a few pairs
     /// across bin edges.
     /// </summary>
     [Fact]

@@ -12,19 +12,18 @@ namespace Plumbline.Nli.Tests;
 [Collection(RepositoryModelCollection.Name)]
 public sealed class SampleFloorTests(ModelFixture fixture)
 {
-    // Source: MultiNLI matched dev (Williams et al., 2018), 500 pairs sampled with seed 20261201. Floor 68%: NOT met
-    // on the full set (66.7%, MODEL_CARD.md); the sample measures 68.8%, so the threshold guards that level less
-    // about two standard errors of a 500-pair sample.
+    // Source: MultiNLI matched dev (Williams et al., 2018), 500 pairs sampled with seed 20261201. Floor 68% (met:
+    // 68.1% on the full set, MODEL_CARD.md; 69.4% on the sample).
     [Fact]
-    public async Task Accuracy_MultiNliMatchedDevSample_IsAtLeast65Percent()
+    public async Task Accuracy_MultiNliMatchedDevSample_IsAtLeast68Percent()
     {
         var evaluation = await EvaluateAsync("mnli-matched-dev-500.csv", expectedPairs: 500);
 
-        Assert.True(evaluation.Accuracy >= 0.65, Describe(evaluation));
+        Assert.True(evaluation.Accuracy >= 0.68, Describe(evaluation));
     }
 
     // Source: SNLI dev (Bowman et al., 2015), 500 pairs sampled with seed 20261201. Floor 79%: NOT met on the full
-    // set (76.2%); the sample measures 76.2%, the threshold sits about two standard errors below.
+    // set (77.5%); the sample measures 75.4%, the threshold sits over one standard error below.
     [Fact]
     public async Task Accuracy_SnliDevSample_IsAtLeast73Percent()
     {
@@ -34,7 +33,7 @@ public sealed class SampleFloorTests(ModelFixture fixture)
     }
 
     // Source: Breaking NLI (Glockner et al., 2018), 300 contradiction pairs sampled with seed 20261201. Floor 85%
-    // (met: 90.5% on the full set, 92.7% on the sample).
+    // (met: 88.0% on the full set, 89.7% on the sample).
     [Fact]
     public async Task ContradictionRecall_BreakingNliSample_IsAtLeast85Percent()
     {
@@ -44,7 +43,7 @@ public sealed class SampleFloorTests(ModelFixture fixture)
     }
 
     // Source: Breaking NLI, 300 entailment pairs (synonym and hypernym swaps) sampled with seed 20261201. Floor 70%
-    // (met: 73.4% on the full set, 73.0% on the sample).
+    // (met: 89.2% on the full set, 89.3% on the sample).
     [Fact]
     public async Task EntailmentRecall_BreakingNliSample_IsAtLeast70Percent()
     {
@@ -54,7 +53,7 @@ public sealed class SampleFloorTests(ModelFixture fixture)
     }
 
     // Source: SNLI dev premises with explicit negations in forms the training data never uses (models/nli-eval,
-    // negation-held-out.csv). Floor 95% (met: 95.8% on the full set, 96.0% on the sample).
+    // negation-held-out.csv). Floor 95% (met: 95.1% on the full set, 95.3% on the sample).
     [Fact]
     public async Task ContradictionRecall_HeldOutNegations_IsAtLeast95Percent()
     {
@@ -64,7 +63,7 @@ public sealed class SampleFloorTests(ModelFixture fixture)
     }
 
     // Source: SNLI dev premises with one state word or WordNet antonym swapped in (models/nli-eval,
-    // antonym-held-out.csv). No floor in the targets; 86.7% on the full set, 87.3% on the sample.
+    // antonym-held-out.csv). No floor in the targets; 87.9% on the full set, 87.7% on the sample.
     [Fact]
     public async Task ContradictionRecall_HeldOutAntonyms_IsAtLeast80Percent()
     {
@@ -75,7 +74,7 @@ public sealed class SampleFloorTests(ModelFixture fixture)
 
     // Source: news paraphrase pairs of the curriculum benchmark's syntactic-variation task (models/nli-eval,
     // paraphrase-held-out.csv; about one in five differ in a number or a detail). Floor: at most 6% read as
-    // contradiction: NOT met (20.2% on the full set, 19.0% on the sample); the threshold guards that level.
+    // contradiction: NOT met (22.6% on the full set, 22.0% on the sample); the threshold guards that level.
     [Fact]
     public async Task FalseContradictions_HeldOutParaphrases_AreAtMost25Percent()
     {
@@ -85,7 +84,7 @@ public sealed class SampleFloorTests(ModelFixture fixture)
     }
 
     // Source: MultiNLI matched dev and SNLI dev sentences with an added clause or modifier (models/nli-eval,
-    // added-detail-held-out.csv). Floor: at most 10% read as contradiction (met: 0.2% on the full set, 0 of 300 on
+    // added-detail-held-out.csv). Floor: at most 10% read as contradiction (met: 0.4% on the full set, 0 of 300 on
     // the sample).
     [Fact]
     public async Task FalseContradictions_HeldOutAddedDetail_AreAtMost10Percent()
