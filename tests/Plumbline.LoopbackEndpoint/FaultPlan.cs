@@ -27,6 +27,34 @@ public static class FaultPlans
     public static FaultPlan Always(string text, Fault fault, FaultPlan otherwise) =>
         (sequence, prompt) => prompt.Contains(text, StringComparison.Ordinal) ? fault : otherwise(sequence, prompt);
 
+    /// <summary>Follows <paramref name="inner"/>, but a prompt that has already been given <paramref name="count"/>
+    /// faults gets none: a test that must end in success stays certain to, however concurrent requests
+    /// happen to draw from a seeded plan.</summary>
+    public static FaultPlan AtMostPerPrompt(int count, FaultPlan inner)
+    {
+        var given = new Dictionary<string, int>(StringComparer.Ordinal);
+        var gate = new Lock();
+        return (sequence, prompt) =>
+        {
+            lock (gate)
+            {
+                var so = given.GetValueOrDefault(prompt);
+                if (so >= count)
+                {
+                    return Fault.None;
+                }
+
+                var fault = inner(sequence, prompt);
+                if (fault != Fault.None)
+                {
+                    given[prompt] = so + 1;
+                }
+
+                return fault;
+            }
+        };
+    }
+
     /// <summary>The first <paramref name="count"/> requests get <paramref name="fault"/>.</summary>
     public static FaultPlan First(int count, Fault fault) => (sequence, _) => sequence <= count ? fault : Fault.None;
 }
