@@ -17,9 +17,12 @@ public sealed class NliModel : IDisposable
     private readonly IPairEncoder encoder;
     private readonly ModelInputs inputs;
     private readonly string[] outputNames;
+    private readonly SemaphoreSlim runSlots;
 
-    private NliModel(NliModelCard card, string modelFile, string sha256, InferenceSession session, IPairEncoder encoder, ModelInputs inputs, string outputName, LabelOrder labels)
+    private NliModel(NliModelCard card, string modelFile, string sha256, InferenceSession session, IPairEncoder encoder, ModelInputs inputs, string outputName, LabelOrder labels, int concurrentRuns)
     {
+        ConcurrentRuns = concurrentRuns;
+        runSlots = new SemaphoreSlim(concurrentRuns, concurrentRuns);
         Card = card;
         ModelFile = modelFile;
         ModelSha256 = sha256;
@@ -44,6 +47,9 @@ public sealed class NliModel : IDisposable
         ? $"{Card.Name} (model.onnx sha256 {ModelSha256[..12]})"
         : string.Create(CultureInfo.InvariantCulture, $"{Card.Name} (model.onnx sha256 {ModelSha256[..12]}, temperature {Card.Temperature:0.####})");
 
+    /// <summary>Most batches this model runs at once, across all callers (<see cref="NliModelOptions.ConcurrentRuns"/>).</summary>
+    public int ConcurrentRuns { get; }
+
     /// <summary>The raw session, for benchmarks that time it against the scorer.</summary>
     public InferenceSession Session { get; }
 
@@ -58,6 +64,8 @@ public sealed class NliModel : IDisposable
     public static NliModel Load(string directory, NliModelOptions? options = null)
     {
         options ??= new NliModelOptions();
+        ArgumentOutOfRangeException.ThrowIfLessThan(options.IntraOpThreads, 1, nameof(options));
+        ArgumentOutOfRangeException.ThrowIfLessThan(options.EffectiveConcurrentRuns, 1, nameof(options));
         var card = NliModelCardReader.Read(directory);
         var modelFile = Path.GetFullPath(Path.Combine(directory, ModelFileName));
         if (!File.Exists(modelFile))
@@ -85,7 +93,7 @@ public sealed class NliModel : IDisposable
             PairEncoders.CheckSegments(encoder, inputs, card, modelFile);
             var outputName = CheckOutput(session, card, modelFile);
             var labels = LabelOrder.From(card.Labels, card.SourceFile, card.Temperature);
-            return new NliModel(card, modelFile, hashing.GetAwaiter().GetResult(), session, encoder, inputs, outputName, labels);
+            return new NliModel(card, modelFile, hashing.GetAwaiter().GetResult(), session, encoder, inputs, outputName, labels, options.EffectiveConcurrentRuns);
         }
         catch
         {
@@ -119,6 +127,19 @@ public sealed class NliModel : IDisposable
     /// <summary>Runs one batch; returns the logits row by row, <see cref="LabelCount"/> per pair.</summary>
     internal float[] Run(NliTensorBatch batch)
     {
+        runSlots.Wait();
+        try
+        {
+            return RunNow(batch);
+        }
+        finally
+        {
+            runSlots.Release();
+        }
+    }
+
+    private float[] RunNow(NliTensorBatch batch)
+    {
         using var runOptions = new RunOptions();
         using var outputs = Session.Run(runOptions, batch.InputNames, batch.Values, outputNames);
         var output = outputs[0];
@@ -131,7 +152,11 @@ public sealed class NliModel : IDisposable
         return output.GetTensorDataAsSpan<float>().ToArray();
     }
 
-    public void Dispose() => Session.Dispose();
+    public void Dispose()
+    {
+        Session.Dispose();
+        runSlots.Dispose();
+    }
 
     private static InferenceSession OpenSession(string modelFile, byte[] bytes, NliModelOptions options)
     {
@@ -139,7 +164,8 @@ public sealed class NliModel : IDisposable
         {
             GraphOptimizationLevel = GraphOptimizationLevel.ORT_ENABLE_EXTENDED,
             IntraOpNumThreads = options.IntraOpThreads,
-            // One batch runs at a time, so parallelism between operators only adds contention.
+            // A batch's operators run one after another; the cores are shared out by running several batches at
+            // once (ConcurrentRuns), so parallelism between operators would only add contention.
             InterOpNumThreads = 1,
             ExecutionMode = ExecutionMode.ORT_SEQUENTIAL,
         };

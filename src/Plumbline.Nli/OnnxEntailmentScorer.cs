@@ -1,3 +1,4 @@
+using System.Runtime.ExceptionServices;
 using Plumbline.Core.Entailment;
 using Plumbline.Nli.Tokenization;
 
@@ -95,22 +96,35 @@ public sealed class OnnxEntailmentScorer : IEntailmentScorer, IDisposable
 
         var distinct = waiting.Keys.ToArray();
         var encoded = Encode(distinct);
-        foreach (var batch in LengthBuckets.Plan(encoded, batchSize))
+        // A call's batches run side by side, each on one core's share of threads (NliModel bounds how many run at
+        // once across all callers): one claim alone keeps every core busy, as several claims in flight do.
+        var parallel = new ParallelOptions { MaxDegreeOfParallelism = model.ConcurrentRuns, CancellationToken = cancellationToken };
+        try
         {
-            cancellationToken.ThrowIfCancellationRequested();
-            var logits = RunBatch(batch.Select(index => encoded[index]).ToArray());
-            for (var row = 0; row < batch.Length; row++)
-            {
-                var index = batch[row];
-                var scored = Remember(distinct[index], logits.AsSpan(row * model.LabelCount, model.LabelCount).ToArray(), encoded[index].Truncated);
-                foreach (var position in waiting[distinct[index]])
-                {
-                    results[position] = scored;
-                }
-            }
+            Parallel.ForEach(LengthBuckets.Plan(encoded, batchSize), parallel, batch => ScoreBatch(batch, encoded, distinct, waiting, results));
+        }
+        catch (AggregateException e) when (e.InnerExceptions.Count >= 1)
+        {
+            // Callers handle the model's own failure types; the first batch's error is the one to report.
+            ExceptionDispatchInfo.Capture(e.InnerExceptions[0]).Throw();
         }
 
         return results;
+    }
+
+    private void ScoreBatch(int[] batch, EncodedPair[] encoded, SentencePair[] distinct, Dictionary<SentencePair, List<int>> waiting, ScoredPair[] results)
+    {
+        var logits = RunBatch(batch.Select(index => encoded[index]).ToArray());
+        for (var row = 0; row < batch.Length; row++)
+        {
+            var index = batch[row];
+            var scored = Remember(distinct[index], logits.AsSpan(row * model.LabelCount, model.LabelCount).ToArray(), encoded[index].Truncated);
+            // Batches hold distinct pairs, so no two threads write the same positions.
+            foreach (var position in waiting[distinct[index]])
+            {
+                results[position] = scored;
+            }
+        }
     }
 
     // The pairs of one tree are every ordered pair of a few statements: each statement is tokenised once here and

@@ -24,13 +24,13 @@ internal static class PipelineBenchmarks
 
     public static async Task<int> MemoryAsync(string[] args, TextWriter output, TextWriter error)
     {
-        if (args is ["--child", var countText, var recordingPath, var folderPath])
+        if (args is ["--child", var countText, var recordingPath, var claimFile, var folderPath])
         {
             // As plumb's own start does, so that the figures are plumb's.
             Cli.Hosting.NativeHeap.LimitArenas();
             var count = int.Parse(countText, CultureInfo.InvariantCulture);
             var watch = Stopwatch.StartNew();
-            var outcome = await PipelineRun.JudgeAsync(recordingPath, PipelineRun.Claims(count), SmallTrees, folderPath, inFlight: 4);
+            var outcome = await PipelineRun.JudgeAsync(recordingPath, claimFile, SmallTrees, folderPath, inFlight: 4);
             var peak = PipelineRun.PeakResidentMiB();
             var committed = GC.GetGCMemoryInfo().TotalCommittedBytes / 1048576.0;
             var live = GC.GetTotalMemory(forceFullCollection: true) / 1048576.0;
@@ -48,8 +48,10 @@ internal static class PipelineBenchmarks
             // The recording is made here, so that the child process holds only what a run of plumb holds.
             using var folder = new Scratch();
             var recording = Path.Combine(folder.Path, "recording.jsonl");
+            var claims = Path.Combine(folder.Path, "claims.jsonl");
             await PipelineRun.RecordAsync(recording, new SmallTreeModel(), PipelineRun.Claims(size), SmallTrees);
-            var line = await ChildAsync(["pipeline-memory", "--child", size.ToString(CultureInfo.InvariantCulture), recording, folder.Path], error);
+            await PipelineRun.WriteClaimsAsync(claims, PipelineRun.Claims(size));
+            var line = await ChildAsync(["pipeline-memory", "--child", size.ToString(CultureInfo.InvariantCulture), recording, claims, folder.Path], error);
             if (line is null)
             {
                 return 1;
@@ -73,15 +75,19 @@ internal static class PipelineBenchmarks
 
     public static async Task<int> ThroughputAsync(string[] args, TextWriter output, TextWriter error)
     {
-        var count = args is ["--claims", var n] ? int.Parse(n, CultureInfo.InvariantCulture) : 24;
-        var inFlight = args is [.., "--in-flight", var f] ? int.Parse(f, CultureInfo.InvariantCulture) : Application.Running.RunOptions.DefaultInFlight;
+        var count = Named(args, "--claims") ?? 24;
+        var inFlight = Named(args, "--in-flight") ?? Application.Running.RunOptions.DefaultInFlight;
+        var intraOp = Named(args, "--intra-op");
+        var concurrentRuns = Named(args, "--concurrent-runs");
         using var folder = new Scratch();
         var claims = PipelineRun.Claims(count);
         var recording = Path.Combine(folder.Path, "recording.jsonl");
         await PipelineRun.RecordAsync(recording, new FullTreeModel(), claims, FullTrees);
 
+        var claimFile = Path.Combine(folder.Path, "claims.jsonl");
+        await PipelineRun.WriteClaimsAsync(claimFile, claims);
         var watch = Stopwatch.StartNew();
-        var outcome = await PipelineRun.JudgeAsync(recording, claims, FullTrees, folder.Path, inFlight);
+        var outcome = await PipelineRun.JudgeAsync(recording, claimFile, FullTrees, folder.Path, inFlight, intraOp, concurrentRuns);
         var wall = watch.Elapsed;
 
         // Per-claim timings from the JSON report: tree (model calls), NLI scoring, solving.
@@ -99,7 +105,7 @@ internal static class PipelineBenchmarks
 
         var judged = outcome.Report.Figures.Judged;
         var busy = wall.TotalMilliseconds * Math.Min(inFlight, Environment.ProcessorCount);
-        output.WriteLine(FormattableString.Invariant($"pipeline-throughput: {judged} claims, kept statements per claim {statements.Min()}-{statements.Max()}, {inFlight} in flight, {Environment.ProcessorCount} cores"));
+        output.WriteLine(FormattableString.Invariant($"pipeline-throughput: {judged} claims, kept statements per claim {statements.Min()}-{statements.Max()}, {inFlight} in flight, {Environment.ProcessorCount} cores, {intraOp ?? 1} intra-op threads per batch, {concurrentRuns?.ToString(CultureInfo.InvariantCulture) ?? "default"} batches at once"));
         output.WriteLine(FormattableString.Invariant($"wall {wall.TotalSeconds:0.0} s, {judged / wall.TotalMinutes:0.0} claims/min (target 60: {(judged / wall.TotalMinutes >= 60 ? "met" : "NOT met")})"));
         var claimTime = tree + nli + solve;
         output.WriteLine(FormattableString.Invariant(
@@ -107,6 +113,12 @@ internal static class PipelineBenchmarks
         output.WriteLine(FormattableString.Invariant(
             $"claim time summed over claims {claimTime / 1000:0.0} s against wall x min(in flight, cores) {busy / 1000:0.0} s: {Math.Max(0, 1 - claimTime / busy):P1} of that outside the engine (run loop, reports, waiting)"));
         return judged == count ? 0 : 1;
+    }
+
+    private static int? Named(string[] args, string name)
+    {
+        var at = Array.IndexOf(args, name);
+        return at >= 0 && at + 1 < args.Length ? int.Parse(args[at + 1], CultureInfo.InvariantCulture) : null;
     }
 
     private static async Task<string?> ChildAsync(string[] args, TextWriter error)

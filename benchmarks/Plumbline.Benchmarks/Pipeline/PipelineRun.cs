@@ -22,6 +22,16 @@ internal static class PipelineRun
     public static IReadOnlyList<Claim> Claims(int count) =>
         [.. Enumerable.Range(1, count).Select(i => new Claim($"g{i}", $"Appliance model {i} ships with a {2 + i % 4}-year warranty."))];
 
+    /// <summary>Writes the claims as a JSON Lines claim file, which a run then reads as plumb reads one.</summary>
+    public static async Task WriteClaimsAsync(string path, IReadOnlyList<Claim> claims)
+    {
+        await using var writer = new StreamWriter(path, append: false, new System.Text.UTF8Encoding(false)) { NewLine = "\n" };
+        foreach (var claim in claims)
+        {
+            await writer.WriteLineAsync(System.Text.Json.JsonSerializer.Serialize(new Dictionary<string, string> { ["id"] = claim.Id, ["claim"] = claim.Text }));
+        }
+    }
+
     /// <summary>Records every request the engine makes for <paramref name="claims"/> with <paramref name="model"/>.</summary>
     public static async Task RecordAsync(string path, ILanguageModel model, IReadOnlyList<Claim> claims, CoherenceOptions options)
     {
@@ -37,11 +47,13 @@ internal static class PipelineRun
         }
     }
 
-    /// <summary>Runs the claims through the run loop as <c>plumb sweep</c> would, reports to files in <paramref name="folder"/>.</summary>
-    public static async Task<RunOutcome> JudgeAsync(string recording, IReadOnlyList<Claim> claims, CoherenceOptions options, string folder, int inFlight)
+    /// <summary>Runs the claim file through the run loop as <c>plumb sweep</c> would (claims streamed from the file),
+    /// reports to files in <paramref name="folder"/>.</summary>
+    public static async Task<RunOutcome> JudgeAsync(string recording, string claimFile, CoherenceOptions options, string folder, int inFlight, int? intraOpThreads = null, int? concurrentRuns = null)
     {
         var model = await RecordingLanguageModel.LoadAsync(recording, options.PromptVersion, CancellationToken.None);
-        using var scorer = OnnxEntailmentScorer.Load(Path.Combine(AppContext.BaseDirectory, "models", "nli-minilm-int8"));
+        var modelOptions = new NliModelOptions { IntraOpThreads = intraOpThreads ?? 1, ConcurrentRuns = concurrentRuns };
+        using var scorer = OnnxEntailmentScorer.Load(Path.Combine(AppContext.BaseDirectory, "models", "nli-minilm-int8"), modelOptions: modelOptions);
         var solver = new CpSatMaxSatSolver(CpSatOptions.Default with { Workers = 1 }, TimeProvider.System);
         var engine = new CoherenceEngine(model, scorer, solver, options, TimeProvider.System);
         var settings = RunSettings.From(options, model.Describe, scorer.Describe, solver.Describe, seed: null);
@@ -55,7 +67,7 @@ internal static class PipelineRun
             sinks.Add(writer is IStreamingReportWriter streaming ? new StreamingReportSink(streaming, destination) : new ReportSink(writer, destination));
         }
 
-        using var input = ClaimInput.FromClaims("generated", claims);
+        using var input = await ClaimInput.OpenFileAsync(claimFile, ClaimFileFormat.JsonLines, CancellationToken.None);
         await using var store = SpillClaimStore.Create(folder);
         var diagnostics = new DiagnosticsSink(Console.Error, debug: true);
         return await run.RunAsync(input, store, new SinkSet(sinks, diagnostics), gates: null, CancellationToken.None);
