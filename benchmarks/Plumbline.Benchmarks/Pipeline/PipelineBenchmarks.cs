@@ -105,7 +105,7 @@ internal static class PipelineBenchmarks
 
         var judged = outcome.Report.Figures.Judged;
         var busy = wall.TotalMilliseconds * Math.Min(inFlight, Environment.ProcessorCount);
-        output.WriteLine(FormattableString.Invariant($"pipeline-throughput: {judged} claims, kept statements per claim {statements.Min()}-{statements.Max()}, {inFlight} in flight, {Environment.ProcessorCount} cores, {intraOp ?? 1} intra-op threads per batch, {concurrentRuns?.ToString(CultureInfo.InvariantCulture) ?? "default"} batches at once"));
+        output.WriteLine(FormattableString.Invariant($"pipeline-throughput: {judged} claims, kept statements per claim {statements.Min()}-{statements.Max()}, {inFlight} in flight, {Environment.ProcessorCount} cores, {intraOp ?? new Nli.NliModelOptions().IntraOpThreads} intra-op threads per batch, {concurrentRuns?.ToString(CultureInfo.InvariantCulture) ?? "default"} batches at once"));
         output.WriteLine(FormattableString.Invariant($"wall {wall.TotalSeconds:0.0} s, {judged / wall.TotalMinutes:0.0} claims/min (target 60: {(judged / wall.TotalMinutes >= 60 ? "met" : "NOT met")})"));
         var claimTime = tree + nli + solve;
         output.WriteLine(FormattableString.Invariant(

@@ -52,7 +52,8 @@ internal static class PipelineRun
     public static async Task<RunOutcome> JudgeAsync(string recording, string claimFile, CoherenceOptions options, string folder, int inFlight, int? intraOpThreads = null, int? concurrentRuns = null)
     {
         var model = await RecordingLanguageModel.LoadAsync(recording, options.PromptVersion, CancellationToken.None);
-        var modelOptions = new NliModelOptions { IntraOpThreads = intraOpThreads ?? 1, ConcurrentRuns = concurrentRuns };
+        var modelOptions = new NliModelOptions { ConcurrentRuns = concurrentRuns };
+        modelOptions = intraOpThreads is { } threads ? modelOptions with { IntraOpThreads = threads } : modelOptions;
         using var scorer = OnnxEntailmentScorer.Load(Path.Combine(AppContext.BaseDirectory, "models", "nli-minilm-int8"), modelOptions: modelOptions);
         var solver = new CpSatMaxSatSolver(CpSatOptions.Default with { Workers = 1 }, TimeProvider.System);
         var engine = new CoherenceEngine(model, scorer, solver, options, TimeProvider.System);
