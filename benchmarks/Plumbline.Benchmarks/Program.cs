@@ -26,7 +26,7 @@ static int Usage(string name)
     Console.Error.WriteLine("usage: Plumbline.Benchmarks <benchmark> [options]");
     Console.Error.WriteLine("  engine [--runs N] [--warmup N] [--workers N]   engine overhead per full-size tree (instant model and NLI, CP-SAT)");
     Console.Error.WriteLine("  pipeline-memory [--claims N M]   peak RSS of whole runs of N and M generated claims (default 1000, 10000), side by side");
-    Console.Error.WriteLine("  pipeline-throughput [--claims N] [--in-flight K]   claims/min on full-size trees with the shipped NLI model; time shares");
+    Console.Error.WriteLine("  pipeline-throughput [--claims N] [--in-flight K] [--nli-model DIR]   claims/min on full-size trees (shipped NLI model unless DIR); time shares");
     Console.Error.WriteLine("  nli [--model DIR] [--pairs N] [--batch N] [--runs N]   NLI scorer pairs/s against session.Run alone; cold start");
     Console.Error.WriteLine("  calibrate --model DIR --fit FILE --check FILE   fit an NLI model's calibration temperature with the C# scorer; NLL and ECE before and after");
     Console.Error.WriteLine("  trees --trees DIR [--nli-model DIR] [--cache DIR] [--grid defaults|full] [--workers N] [--limit N] [--check-solver]");

@@ -20,7 +20,7 @@ from wordpiece import WordPiece
 MAX_LEN = 128
 QUANTIZATION = {
     "weights": "int8 weights (uint8, per output column, dequantised before fp32 MatMul); uint8 word embeddings per row; fp32 activations",
-    "rows": "int8 MatMulInteger: symmetric 7-bit int8 weights per output column; uint8 activations quantised per token row (absmax/127 around 128), so a pair's scores do not depend on its batch; uint8 word embeddings per row",
+    "rows": "int8 integer MatMuls (QuantizeLinear per token row, MatMulIntegerToFloat): symmetric 7-bit int8 weights per output column; uint8 activations quantised per token row (absmax/127 around 128), so a pair's scores do not depend on its batch; uint8 word embeddings per row",
 }
 LABELS = ["entailment", "neutral", "contradiction"]
 

@@ -170,9 +170,10 @@ public sealed class NliModel : IDisposable
             ExecutionMode = ExecutionMode.ORT_SEQUENTIAL,
         };
 
-        // The shipped model stores int8 weights behind DequantizeLinear. Left alone, the optimiser rewrites
-        // that into int8 kernels that also quantise the activations, so scores drift from the model's own
-        // reference logits; without the QDQ rewrite the weights are dequantised once at load instead.
+        // The optimiser's QDQ rewrite would turn a model's QuantizeLinear / DequantizeLinear pairs into its own int8
+        // kernels: a model of the recipe's "weights" form (int8 weights behind DequantizeLinear) would then also
+        // quantise its activations, and its scores would drift from the model's own reference logits. The shipped
+        // model has no such pairs; with the rewrite off its per-row QuantizeLinear also runs exactly as written.
         sessionOptions.AddSessionConfigEntry("session.disable_quant_qdq", "1");
         // Several claims score at once (--in-flight), each run on the same intra-op pool; threads that spin while
         // waiting for work take the cores the other runs need. Without spinning the pipeline-throughput benchmark

@@ -79,6 +79,8 @@ internal static class PipelineBenchmarks
         var inFlight = Named(args, "--in-flight") ?? Application.Running.RunOptions.DefaultInFlight;
         var intraOp = Named(args, "--intra-op");
         var concurrentRuns = Named(args, "--concurrent-runs");
+        // Another NLI model folder, to compare two models' throughput side by side in one sitting.
+        var nliModel = Array.IndexOf(args, "--nli-model") is var at and >= 0 && at + 1 < args.Length ? args[at + 1] : null;
         using var folder = new Scratch();
         var claims = PipelineRun.Claims(count);
         var recording = Path.Combine(folder.Path, "recording.jsonl");
@@ -87,7 +89,7 @@ internal static class PipelineBenchmarks
         var claimFile = Path.Combine(folder.Path, "claims.jsonl");
         await PipelineRun.WriteClaimsAsync(claimFile, claims);
         var watch = Stopwatch.StartNew();
-        var outcome = await PipelineRun.JudgeAsync(recording, claimFile, FullTrees, folder.Path, inFlight, intraOp, concurrentRuns);
+        var outcome = await PipelineRun.JudgeAsync(recording, claimFile, FullTrees, folder.Path, inFlight, intraOp, concurrentRuns, nliModel);
         var wall = watch.Elapsed;
 
         // Per-claim timings from the JSON report: tree (model calls), NLI scoring, solving.
@@ -105,7 +107,7 @@ internal static class PipelineBenchmarks
 
         var judged = outcome.Report.Figures.Judged;
         var busy = wall.TotalMilliseconds * Math.Min(inFlight, Environment.ProcessorCount);
-        output.WriteLine(FormattableString.Invariant($"pipeline-throughput: {judged} claims, kept statements per claim {statements.Min()}-{statements.Max()}, {inFlight} in flight, {Environment.ProcessorCount} cores, {intraOp ?? new Nli.NliModelOptions().IntraOpThreads} intra-op threads per batch, {concurrentRuns?.ToString(CultureInfo.InvariantCulture) ?? "default"} batches at once"));
+        output.WriteLine(FormattableString.Invariant($"pipeline-throughput: {judged} claims, kept statements per claim {statements.Min()}-{statements.Max()}, {inFlight} in flight, {Environment.ProcessorCount} cores, {intraOp ?? new Nli.NliModelOptions().IntraOpThreads} intra-op threads per batch, {concurrentRuns?.ToString(CultureInfo.InvariantCulture) ?? "default"} batches at once, NLI model {nliModel ?? "shipped"}"));
         output.WriteLine(FormattableString.Invariant($"wall {wall.TotalSeconds:0.0} s, {judged / wall.TotalMinutes:0.0} claims/min (target 60: {(judged / wall.TotalMinutes >= 60 ? "met" : "NOT met")})"));
         var claimTime = tree + nli + solve;
         output.WriteLine(FormattableString.Invariant(

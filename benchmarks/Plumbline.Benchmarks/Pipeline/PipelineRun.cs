@@ -49,12 +49,13 @@ internal static class PipelineRun
 
     /// <summary>Runs the claim file through the run loop as <c>plumb sweep</c> would (claims streamed from the file),
     /// reports to files in <paramref name="folder"/>.</summary>
-    public static async Task<RunOutcome> JudgeAsync(string recording, string claimFile, CoherenceOptions options, string folder, int inFlight, int? intraOpThreads = null, int? concurrentRuns = null)
+    public static async Task<RunOutcome> JudgeAsync(
+        string recording, string claimFile, CoherenceOptions options, string folder, int inFlight, int? intraOpThreads = null, int? concurrentRuns = null, string? nliModel = null)
     {
         var model = await RecordingLanguageModel.LoadAsync(recording, options.PromptVersion, CancellationToken.None);
         var modelOptions = new NliModelOptions { ConcurrentRuns = concurrentRuns };
         modelOptions = intraOpThreads is { } threads ? modelOptions with { IntraOpThreads = threads } : modelOptions;
-        using var scorer = OnnxEntailmentScorer.Load(Path.Combine(AppContext.BaseDirectory, "models", "nli-minilm-int8"), modelOptions: modelOptions);
+        using var scorer = OnnxEntailmentScorer.Load(nliModel ?? Path.Combine(AppContext.BaseDirectory, "models", "nli-minilm-int8"), modelOptions: modelOptions);
         var solver = new CpSatMaxSatSolver(CpSatOptions.Default with { Workers = 1 }, TimeProvider.System);
         var engine = new CoherenceEngine(model, scorer, solver, options, TimeProvider.System);
         var settings = RunSettings.From(options, model.Describe, scorer.Describe, solver.Describe, seed: null);
