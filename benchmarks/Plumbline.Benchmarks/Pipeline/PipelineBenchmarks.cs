@@ -30,7 +30,7 @@ internal static class PipelineBenchmarks
             Cli.Hosting.NativeHeap.LimitArenas();
             var count = int.Parse(countText, CultureInfo.InvariantCulture);
             var watch = Stopwatch.StartNew();
-            var outcome = await PipelineRun.JudgeAsync(recordingPath, claimFile, SmallTrees, folderPath, inFlight: 4);
+            var outcome = await PipelineRun.JudgeAsync(recordingPath, claimFile, SmallTrees, folderPath, inFlight: 4, timeline: new ResidentTimeline(output));
             var peak = PipelineRun.PeakResidentMiB();
             var committed = GC.GetGCMemoryInfo().TotalCommittedBytes / 1048576.0;
             var live = GC.GetTotalMemory(forceFullCollection: true) / 1048576.0;
@@ -43,6 +43,7 @@ internal static class PipelineBenchmarks
         output.WriteLine("pipeline-memory: whole runs in separate processes (recorded answers, shipped NLI model, CP-SAT, json + html + jsonl reports)");
         output.WriteLine("claims\tpeak RSS MiB\tlive managed MiB (after a full GC at the end)\tmanaged committed MiB at the end\twall s\tjudged\thtml MiB");
         var peaks = new List<double>();
+        var timelines = new List<string>();
         foreach (var size in sizes)
         {
             // The recording is made here, so that the child process holds only what a run of plumb holds.
@@ -51,14 +52,21 @@ internal static class PipelineBenchmarks
             var claims = Path.Combine(folder.Path, "claims.jsonl");
             await PipelineRun.RecordAsync(recording, new SmallTreeModel(), PipelineRun.Claims(size), SmallTrees);
             await PipelineRun.WriteClaimsAsync(claims, PipelineRun.Claims(size));
-            var line = await ChildAsync(["pipeline-memory", "--child", size.ToString(CultureInfo.InvariantCulture), recording, claims, folder.Path], error);
-            if (line is null)
+            var lines = await ChildAsync(["pipeline-memory", "--child", size.ToString(CultureInfo.InvariantCulture), recording, claims, folder.Path], error);
+            if (lines is null)
             {
                 return 1;
             }
 
+            var line = lines[^1];
             output.WriteLine(line);
+            timelines.AddRange(lines[..^1].Select(mark => $"  {size} claims, {mark}"));
             peaks.Add(double.Parse(line.Split('\t')[1], CultureInfo.InvariantCulture));
+        }
+
+        foreach (var timeline in timelines)
+        {
+            output.WriteLine(timeline);
         }
 
         var ratio = peaks[1] / peaks[0];
@@ -123,7 +131,8 @@ internal static class PipelineBenchmarks
         return at >= 0 && at + 1 < args.Length ? int.Parse(args[at + 1], CultureInfo.InvariantCulture) : null;
     }
 
-    private static async Task<string?> ChildAsync(string[] args, TextWriter error)
+    /// <summary>The child's output lines (the figures last), or null when it failed.</summary>
+    private static async Task<string[]?> ChildAsync(string[] args, TextWriter error)
     {
         var host = Environment.ProcessPath ?? "dotnet";
         var start = new ProcessStartInfo(host) { RedirectStandardOutput = true, UseShellExecute = false };
@@ -146,7 +155,7 @@ internal static class PipelineBenchmarks
             return null;
         }
 
-        return text.Trim().Split('\n')[^1];
+        return text.Trim().Split('\n');
     }
 
     /// <summary>A temporary folder for the recording, the spill file and the reports.</summary>

@@ -50,29 +50,43 @@ internal static class PipelineRun
     /// <summary>Runs the claim file through the run loop as <c>plumb sweep</c> would (claims streamed from the file),
     /// reports to files in <paramref name="folder"/>.</summary>
     public static async Task<RunOutcome> JudgeAsync(
-        string recording, string claimFile, CoherenceOptions options, string folder, int inFlight, int? intraOpThreads = null, int? concurrentRuns = null, string? nliModel = null)
+        string recording, string claimFile, CoherenceOptions options, string folder, int inFlight, int? intraOpThreads = null, int? concurrentRuns = null, string? nliModel = null,
+        ResidentTimeline? timeline = null)
     {
         var model = await RecordingLanguageModel.LoadAsync(recording, options.PromptVersion, CancellationToken.None);
+        timeline?.Mark("recording indexed");
         var modelOptions = new NliModelOptions { ConcurrentRuns = concurrentRuns };
         modelOptions = intraOpThreads is { } threads ? modelOptions with { IntraOpThreads = threads } : modelOptions;
         using var scorer = OnnxEntailmentScorer.Load(nliModel ?? Path.Combine(AppContext.BaseDirectory, "models", "nli-minilm-int8"), modelOptions: modelOptions);
+        timeline?.Mark("NLI model loaded");
         var solver = new CpSatMaxSatSolver(CpSatOptions.Default with { Workers = 1 }, TimeProvider.System);
         var engine = new CoherenceEngine(model, scorer, solver, options, TimeProvider.System);
         var settings = RunSettings.From(options, model.Describe, scorer.Describe, solver.Describe, seed: null);
         var run = new ClaimRun(engine, settings, TimeProvider.System, new RunOptions("benchmark", inFlight));
         // As plumb's composition root does.
         var sinks = new List<IRunSink> { new Cli.Hosting.HeapTrimSink() };
+        if (timeline is not null)
+        {
+            sinks.Add(timeline);
+        }
+
         foreach (var format in new[] { "json", "html", "jsonl" })
         {
             var writer = ReportWriterRegistry.Default.Create(format);
             var destination = ReportDestination.File(Path.Combine(folder, "report." + format));
             sinks.Add(writer is IStreamingReportWriter streaming ? new StreamingReportSink(streaming, destination) : new ReportSink(writer, destination));
+            if (timeline is not null)
+            {
+                sinks.Add(timeline.After(format + " written"));
+            }
         }
 
         using var input = await ClaimInput.OpenFileAsync(claimFile, ClaimFileFormat.JsonLines, CancellationToken.None);
         await using var store = SpillClaimStore.Create(folder);
         var diagnostics = new DiagnosticsSink(Console.Error, debug: true);
-        return await run.RunAsync(input, store, new SinkSet(sinks, diagnostics), gates: null, CancellationToken.None);
+        var outcome = await run.RunAsync(input, store, new SinkSet(sinks, diagnostics), gates: null, CancellationToken.None);
+        timeline?.Finish();
+        return outcome;
     }
 
     /// <summary>Peak resident set of this process so far, from /proc/self/status (VmHWM), in MiB.</summary>

@@ -15,4 +15,15 @@ public sealed class RuntimeConfigTests
 
         Assert.False(properties.GetProperty("System.GC.Concurrent").GetBoolean());
     }
+
+    [Fact]
+    public void PlumbRuntimeConfig_YoungGenerationBudgetCappedAtSixMiB()
+    {
+        var path = Path.ChangeExtension(PlumbProcess.PlumbDll, ".runtimeconfig.json");
+        using var config = JsonDocument.Parse(File.ReadAllText(path));
+
+        var properties = config.RootElement.GetProperty("runtimeOptions").GetProperty("configProperties");
+
+        Assert.Equal(6 << 20, properties.GetProperty("System.GC.Gen0MaxBudget").GetInt64());
+    }
 }
