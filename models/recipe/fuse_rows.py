@@ -8,7 +8,6 @@ is how the shipped model moved to the fused form without retraining or re-export
 import sys
 
 import onnx
-from onnx import numpy_helper
 
 from quantize import rows_constants, rows_matmul, use_rows_domain
 
@@ -20,13 +19,13 @@ UNFUSED_CONSTANTS = {"_rows_eps", "_rows_127", "_rows_128", "_rows_zero"}
 def fuse(model):
     graph = model.graph
     weights = {i.name: i for i in graph.initializer}
+    producers = {n.output[0]: n for n in graph.node}
     nodes, inner_sizes, skipped = [], set(), set()
     for node in graph.node:
         if node.op_type == "MatMulInteger":
             base = node.output[0][: -len("_int")]
             k = weights[base + "_Wq"].dims[0]
             inner_sizes.add(k)
-            producers = {n.output[0]: n for n in graph.node}
             x = producers[base + "_abs"].input[0]
             # Put the fused nodes where the MatMul was: everything they read is computed by then.
             nodes = [n for n in nodes if n.output[0] not in {base + s for s in UNFUSED}]

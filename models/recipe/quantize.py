@@ -96,8 +96,9 @@ def rows_constants(ks):
 
 
 def use_rows_domain(model):
-    """MatMulIntegerToFloat lives in ONNX Runtime's com.microsoft domain (version 1); onnx's checker does not know
-    it, so graphs of the rows form are checked with it left out."""
+    """Declares ONNX Runtime's com.microsoft domain (version 1), where MatMulIntegerToFloat lives. onnx's checker
+    does not know that domain, so rows-form graphs are not put through it; ONNX Runtime checks them as it loads
+    them, and the C# tests load the shipped model."""
     if not any(o.domain == "com.microsoft" for o in model.opset_import):
         model.opset_import.append(helper.make_opsetid("com.microsoft", 1))
 

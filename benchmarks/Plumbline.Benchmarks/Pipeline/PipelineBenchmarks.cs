@@ -88,7 +88,7 @@ internal static class PipelineBenchmarks
         var intraOp = Named(args, "--intra-op");
         var concurrentRuns = Named(args, "--concurrent-runs");
         // Another NLI model folder, to compare two models' throughput side by side in one sitting.
-        var nliModel = Array.IndexOf(args, "--nli-model") is var at and >= 0 && at + 1 < args.Length ? args[at + 1] : null;
+        var nliModel = Text(args, "--nli-model");
         using var folder = new Scratch();
         var claims = PipelineRun.Claims(count);
         var recording = Path.Combine(folder.Path, "recording.jsonl");
@@ -125,10 +125,13 @@ internal static class PipelineBenchmarks
         return judged == count ? 0 : 1;
     }
 
-    private static int? Named(string[] args, string name)
+    private static int? Named(string[] args, string name) =>
+        Text(args, name) is { } value ? int.Parse(value, CultureInfo.InvariantCulture) : null;
+
+    private static string? Text(string[] args, string name)
     {
         var at = Array.IndexOf(args, name);
-        return at >= 0 && at + 1 < args.Length ? int.Parse(args[at + 1], CultureInfo.InvariantCulture) : null;
+        return at >= 0 && at + 1 < args.Length ? args[at + 1] : null;
     }
 
     /// <summary>The child's output lines (the figures last), or null when it failed.</summary>

@@ -5,8 +5,8 @@ namespace Plumbline.Benchmarks.Pipeline;
 
 /// <summary>
 /// Resident memory at the moments a whole run's memory is decided: models loaded, the run started (after its
-/// start trim), every <see cref="Every"/> claims, the run over, and each report written. Written to stderr as one line, so the
-/// pipeline-memory benchmark can say where a peak came from.
+/// start trim), every <see cref="Every"/> claims, the run over, and each report written. Written as one line at the
+/// end, so the pipeline-memory benchmark can say where a peak came from.
 /// </summary>
 internal sealed class ResidentTimeline(TextWriter output) : IRunSink
 {
