@@ -8,22 +8,20 @@ public sealed class RuntimeConfigTests
     [Fact]
     public void PlumbRuntimeConfig_BackgroundCollectionOff()
     {
-        var path = Path.ChangeExtension(PlumbProcess.PlumbDll, ".runtimeconfig.json");
-        using var config = JsonDocument.Parse(File.ReadAllText(path));
-
-        var properties = config.RootElement.GetProperty("runtimeOptions").GetProperty("configProperties");
-
-        Assert.False(properties.GetProperty("System.GC.Concurrent").GetBoolean());
+        Assert.False(ConfigProperty("System.GC.Concurrent").GetBoolean());
     }
 
     [Fact]
     public void PlumbRuntimeConfig_YoungGenerationBudgetCappedAtSixMiB()
     {
+        Assert.Equal(6 << 20, ConfigProperty("System.GC.Gen0MaxBudget").GetInt64());
+    }
+
+    /// <summary>One of the configProperties in plumb's runtimeconfig.json, as the runtime reads it at start.</summary>
+    private static JsonElement ConfigProperty(string name)
+    {
         var path = Path.ChangeExtension(PlumbProcess.PlumbDll, ".runtimeconfig.json");
         using var config = JsonDocument.Parse(File.ReadAllText(path));
-
-        var properties = config.RootElement.GetProperty("runtimeOptions").GetProperty("configProperties");
-
-        Assert.Equal(6 << 20, properties.GetProperty("System.GC.Gen0MaxBudget").GetInt64());
+        return config.RootElement.GetProperty("runtimeOptions").GetProperty("configProperties").GetProperty(name).Clone();
     }
 }
