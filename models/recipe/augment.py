@@ -519,3 +519,73 @@ def generate_siblings(train, seed, quota):
             if e != n and 2 <= len(e.split()) <= 25 and 2 <= len(n.split()) <= 25:
                 out.append((e, n, "neutral", "sibling") if rng.random() < 0.5 else (n, e, "neutral", "sibling"))
     return out
+
+
+FRONTED = re.compile(r"^((?:In|On|At|During|After|Before|By|For|Since|Until|Last|This|Earlier|Later|Over|Under|Within|"
+                     r"Throughout|Despite|According to) [^,]{2,48}), (.{12,})$")
+REPORTED = re.compile(r"^([A-Z][^,]{2,48}?) (said|says|reported|reports|added|noted|stated|announced) (?:that )?(.{12,})$")
+RESPELLINGS = [("per cent", "percent"), ("percent", "%"), ("United States", "U.S."), ("U.S.", "United States"),
+               ("does not", "doesn't"), ("do not", "don't"), ("is not", "isn't"), ("cannot", "can't"),
+               ("approximately", "about"), ("more than", "over"), ("Mister", "Mr."),
+               ("because", "since"), ("children", "kids"), ("begin", "start"), ("purchase", "buy")]
+NUMBER_WORDS = ["zero", "one", "two", "three", "four", "five", "six", "seven", "eight", "nine", "ten"]
+
+
+def fronted_moved(sentence):
+    """'In 1990, the firm moved.' -> 'The firm moved in 1990.': the same statement in another order."""
+    m = FRONTED.match(sentence.strip())
+    if not m:
+        return None
+    front, rest = m.group(1), m.group(2).strip().rstrip(".!?")
+    return sentence_case(f"{rest} {lower_first(front)}") if not rest.endswith("?") else None
+
+
+def reported_moved(sentence):
+    """'The mayor said that taxes will rise.' -> 'Taxes will rise, the mayor said.'"""
+    m = REPORTED.match(sentence.strip())
+    if not m or m.group(1).split()[0].lower() in ("it", "there", "this", "that", "what"):
+        return None
+    speaker, verb, said = m.group(1), m.group(2), m.group(3).strip().rstrip(".!?")
+    return sentence_case(f"{said}, {lower_first(speaker)} {verb}")
+
+
+def respelt(sentence, rng):
+    """One word or phrase written another way with the same meaning: a number as a word or figure, a common
+    abbreviation or contraction, an everyday synonym."""
+    words = sentence.split(" ")
+    numbers = [i for i, w in enumerate(words) if w.lower().strip(".,;:") in NUMBER_WORDS[2:] or w.strip(".,;:") in
+               [str(n) for n in range(2, 11)]]
+    if numbers and rng.random() < 0.5:
+        i = rng.choice(numbers)
+        core = words[i].strip(".,;:")
+        new = str(NUMBER_WORDS.index(core.lower())) if core.lower() in NUMBER_WORDS else NUMBER_WORDS[int(core)]
+        words[i] = words[i].replace(core, new, 1)
+        return " ".join(words)
+    options = [(a, b) for a, b in RESPELLINGS if re.search(rf"(?<![\w.]){re.escape(a)}(?!\w)", sentence)]
+    if not options:
+        return None
+    a, b = rng.choice(options)
+    return re.sub(rf"(?<![\w.]){re.escape(a)}(?!\w)", b, sentence, count=1)
+
+
+def generate_respellings(train, seed, quotas):
+    """The same statement in other words or another order, entailment both ways: a fronted phrase moved to the
+    end, a reported clause put before its speaker, a number or common phrase respelled. Long sentences from the
+    MultiNLI, ConjNLI and SNLI training premises, the length of news and explanation sentences."""
+    rng = random.Random(seed + 4)
+    names = ("mnli_mismatched", "mnli_sni", "taxinli_rest", "conjnli_adversarial", "snli_test", "cad_train")
+    premises = sorted({p for name in names if name in train for p, _, _ in train[name] if 6 <= len(p.split()) <= 45})
+    rng.shuffle(premises)
+    out = []
+    for source, make in (("fronted_moved", fronted_moved), ("reported_moved", reported_moved),
+                         ("respelt", lambda p: respelt(p, rng))):
+        made = 0
+        for p in premises:
+            if made >= quotas.get(source, 0):
+                break
+            h = make(p)
+            if h and h != p:
+                out.append((p, h, "entailment", source) if rng.random() < 0.5 else (h, p, "entailment", source))
+                made += 1
+        rng.shuffle(premises)
+    return out

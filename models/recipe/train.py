@@ -12,7 +12,8 @@ import time
 
 import torch
 
-from augment import generate, generate_negation_crossings, generate_restatements, generate_siblings, held_out_added_detail
+from augment import (generate, generate_negation_crossings, generate_respellings, generate_restatements, generate_siblings,
+                     held_out_added_detail)
 from bert import PairClassifier, load_base_weights, load_exported_weights
 from negation_eval import negation_pairs
 from nli_files import LABELS, evaluate_sources, extra_evaluate_sources, extra_train_sources, train_sources
@@ -26,6 +27,8 @@ RESTATEMENT_QUOTAS = dict(identity=1500, conjunct_part=3000, conjunct_added=2000
 # A 'not' on one side that does not make a contradiction (augment.generate_negation_crossings).
 CROSSING_QUOTAS = dict(ruled_out=3000, left_open=2000, negated_clause_part=2000, negated_clause_added=1500,
                        negation_respelled=1500)
+# The same statement reordered or respelled (augment.generate_respellings): entailment both ways.
+RESPELLING_QUOTAS = dict(fronted_moved=1800, reported_moved=400, respelt=1500)
 # Caps on the larger extra/ files: the templated curriculum probes and the monotonicity pairs would
 # otherwise outweigh the natural sentences.
 EXTRA_CAPS = dict(monotonicity=8000, **{"curriculum_" + t: 1500 for t in
@@ -160,6 +163,8 @@ def main():
     ap.add_argument("--checkpoints", type=int, default=2, help="checkpoints per epoch")
     ap.add_argument("--siblings", type=int, default=6000, help="sibling-hypothesis pairs (augment.generate_siblings)")
     ap.add_argument("--init", help="an fp32 graph export.py wrote (model-fp32.onnx) to continue from, head included")
+    ap.add_argument("--respellings", action="store_true", help="add reordered and respelled statements (entailment)")
+    ap.add_argument("--subsample", type=int, help="train on this many pairs drawn from the whole mix")
     args = ap.parse_args()
 
     torch.manual_seed(args.seed)
@@ -194,7 +199,12 @@ def main():
         pairs += [g for g in generate_negation_crossings(train, args.seed, crossing_quotas) if g[3] not in args.drop]
     if "sibling" not in args.drop:
         pairs += generate_siblings(train, args.seed, args.siblings)
+    if args.respellings:
+        pairs += [g for g in generate_respellings(train, args.seed, RESPELLING_QUOTAS) if g[3] not in args.drop]
     pairs = [x for x in pairs if (x[0], x[1]) not in held_keys]
+    if args.subsample and args.subsample < len(pairs):
+        # A short continued run: one full schedule (warm-up and decay) over a random share of every source.
+        pairs = random.Random(args.seed + 7).sample(pairs, args.subsample)
     counts = collections.Counter(name for *_, name in pairs)
     note(event="data", counts=counts, total=len(pairs), drop=args.drop, seed=args.seed)
     with open(os.path.join(args.out, "train-pairs.jsonl"), "w", encoding="utf-8") as f:
