@@ -529,6 +529,7 @@ RESPELLINGS = [("per cent", "percent"), ("percent", "%"), ("United States", "U.S
                ("approximately", "about"), ("more than", "over"), ("Mister", "Mr."),
                ("because", "since"), ("children", "kids"), ("begin", "start"), ("purchase", "buy")]
 NUMBER_WORDS = ["zero", "one", "two", "three", "four", "five", "six", "seven", "eight", "nine", "ten"]
+NUMBER_FIGURES = [str(n) for n in range(2, 11)]
 
 
 def fronted_moved(sentence):
@@ -553,8 +554,8 @@ def respelt(sentence, rng):
     """One word or phrase written another way with the same meaning: a number as a word or figure, a common
     abbreviation or contraction, an everyday synonym."""
     words = sentence.split(" ")
-    numbers = [i for i, w in enumerate(words) if w.lower().strip(".,;:") in NUMBER_WORDS[2:] or w.strip(".,;:") in
-               [str(n) for n in range(2, 11)]]
+    numbers = [i for i, w in enumerate(words)
+               if w.lower().strip(".,;:") in NUMBER_WORDS[2:] or w.strip(".,;:") in NUMBER_FIGURES]
     if numbers and rng.random() < 0.5:
         i = rng.choice(numbers)
         core = words[i].strip(".,;:")

@@ -64,19 +64,22 @@ def dequantize(int8_path, fp32_path):
     return len(bases)
 
 
-def check(fp32_path, reference_dir, vocab):
-    """Largest difference between the emulated int8 logits of the dequantised weights and the reference logits."""
+def check(fp32_path, model_dir):
+    """Largest difference between the emulated int8 logits of the dequantised weights and the reference logits of
+    model_dir (its reference/logits.jsonl, read with its own vocabulary and maximum length)."""
     from bert import PairClassifier, load_exported_weights
     from emulate import emulate_int8
     from wordpiece import WordPiece
 
-    tokenizer = WordPiece(vocab)
+    with open(f"{model_dir}/nli-model.json", encoding="utf-8") as f:
+        max_len = json.load(f)["max_length"]
+    tokenizer = WordPiece(f"{model_dir}/vocab.txt")
     model = emulate_int8(load_exported_weights(PairClassifier(), fp32_path), weights_only=False, rows=True)
     worst = 0.0
-    with open(f"{reference_dir}/logits.jsonl", encoding="utf-8") as f:
+    with open(f"{model_dir}/reference/logits.jsonl", encoding="utf-8") as f:
         for line in f:
             row = json.loads(line)
-            ids, types = tokenizer.encode_pair(row["premise"], row["hypothesis"], 128)
+            ids, types = tokenizer.encode_pair(row["premise"], row["hypothesis"], max_len)
             with torch.no_grad():
                 logits = model(torch.tensor([ids]), torch.ones(1, len(ids), dtype=torch.long), torch.tensor([types]))
             worst = max(worst, float(np.abs(logits[0].numpy() - np.array(row["int8_logits"])).max()))
@@ -92,4 +95,4 @@ if __name__ == "__main__":
     print(f"{dequantize(args.int8, args.fp32)} products dequantised -> {args.fp32}")
     if args.check:
         print(f"largest logit difference from {args.check}/reference: "
-              f"{check(args.fp32, args.check + '/reference', args.check + '/vocab.txt'):.2e}")
+              f"{check(args.fp32, args.check):.2e}")
